@@ -1,0 +1,19 @@
+//! The parax notation as text: the pest grammar (`grammar/parax.pest`), a parser
+//! that never fails and keeps every line (comments and blank lines included), a
+//! tree with byte spans, the one [`LineIndex`] that turns offsets into positions,
+//! and the formatter. This crate knows nothing of optics: which keywords a block
+//! accepts and what values mean is decided by `parax-eval`.
+
+mod error;
+pub mod format;
+mod line_index;
+mod parser;
+mod span;
+pub mod suggest;
+mod tree;
+
+pub use error::{codes, SyntaxError};
+pub use line_index::{ColumnUnit, LineIndex, LinePos};
+pub use parser::parse;
+pub use span::Span;
+pub use tree::*;

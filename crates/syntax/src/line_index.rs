@@ -1,0 +1,172 @@
+//! One conversion between byte offsets and positions: 1-based line:column for
+//! people, and 0-based line plus a column in UTF-8 bytes, UTF-16 code units or
+//! characters for editors. Every position shown anywhere comes from here.
+
+/// How a column is counted.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum ColumnUnit {
+    /// Bytes of UTF-8 (LSP `utf-8`).
+    Utf8,
+    /// UTF-16 code units (LSP `utf-16`, the protocol default).
+    Utf16,
+    /// Unicode scalar values (what people count; used for `line:column`).
+    Char,
+}
+
+/// A 0-based line and a 0-based column counted in some [`ColumnUnit`].
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]
+pub struct LinePos {
+    /// 0-based line number.
+    pub line: u32,
+    /// 0-based column in the chosen unit.
+    pub col: u32,
+}
+
+/// Line starts of one text, for offset ↔ position conversion. A line ends at `\n`;
+/// a `\r` before it is part of the line break, never of a column.
+#[derive(Debug, Clone)]
+pub struct LineIndex {
+    starts: Vec<usize>,
+    len: usize,
+}
+
+impl LineIndex {
+    /// Index the line starts of `text`.
+    pub fn new(text: &str) -> Self {
+        let mut starts = Vec::with_capacity(text.len() / 32 + 1);
+        starts.push(0);
+        starts.extend(memchr_newlines(text.as_bytes()).map(|i| i + 1));
+        LineIndex {
+            starts,
+            len: text.len(),
+        }
+    }
+
+    /// Number of lines (a final line without `\n` counts; an empty text has one line).
+    pub fn line_count(&self) -> usize {
+        self.starts.len()
+    }
+
+    /// Byte offset where 0-based `line` starts, clamped to the text.
+    pub fn line_start(&self, line: usize) -> usize {
+        self.starts.get(line).copied().unwrap_or(self.len)
+    }
+
+    /// Byte range of 0-based `line` without its line break (`\n` or `\r\n`).
+    pub fn line_span(&self, text: &str, line: usize) -> crate::Span {
+        let start = self.line_start(line);
+        let mut end = self
+            .starts
+            .get(line + 1)
+            .map(|s| s - 1)
+            .unwrap_or(self.len)
+            .max(start);
+        if end > start && text.as_bytes().get(end - 1) == Some(&b'\r') {
+            end -= 1;
+        }
+        crate::Span::new(start, end)
+    }
+
+    /// 0-based line containing byte `offset` (clamped).
+    pub fn line_of(&self, offset: usize) -> usize {
+        let offset = offset.min(self.len);
+        match self.starts.binary_search(&offset) {
+            Ok(i) => i,
+            Err(i) => i - 1,
+        }
+    }
+
+    /// Position of byte `offset` with the column in `unit`. Offsets past the end or
+    /// inside a character are clamped to the nearest earlier character boundary.
+    pub fn position(&self, text: &str, offset: usize, unit: ColumnUnit) -> LinePos {
+        let mut offset = offset.min(text.len());
+        while !text.is_char_boundary(offset) {
+            offset -= 1;
+        }
+        let line = self.line_of(offset);
+        let start = self.line_start(line);
+        let before = &text[start..offset];
+        let before = before.strip_suffix('\r').unwrap_or(before);
+        let col = match unit {
+            ColumnUnit::Utf8 => before.len(),
+            ColumnUnit::Utf16 => before.encode_utf16().count(),
+            ColumnUnit::Char => before.chars().count(),
+        };
+        LinePos {
+            line: line as u32,
+            col: col as u32,
+        }
+    }
+
+    /// 1-based `(line, column)` for people, the column counted in characters.
+    pub fn line_col(&self, text: &str, offset: usize) -> (usize, usize) {
+        let p = self.position(text, offset, ColumnUnit::Char);
+        (p.line as usize + 1, p.col as usize + 1)
+    }
+
+    /// Byte offset of a position. Out-of-range lines clamp to the end of the text and
+    /// out-of-range columns to the end of the line (never a panic): editors send such
+    /// positions while typing.
+    pub fn offset(&self, text: &str, pos: LinePos, unit: ColumnUnit) -> usize {
+        let line = pos.line as usize;
+        if line >= self.starts.len() {
+            return self.len;
+        }
+        let span = self.line_span(text, line);
+        let line_text = &text[span.start..span.end];
+        let mut remaining = pos.col as usize;
+        for (i, ch) in line_text.char_indices() {
+            let width = match unit {
+                ColumnUnit::Utf8 => ch.len_utf8(),
+                ColumnUnit::Utf16 => ch.len_utf16(),
+                ColumnUnit::Char => 1,
+            };
+            if remaining < width {
+                return span.start + i;
+            }
+            remaining -= width;
+        }
+        span.end
+    }
+}
+
+/// Offsets of every `\n`. Hand-written rather than a dependency: one byte search.
+fn memchr_newlines(bytes: &[u8]) -> impl Iterator<Item = usize> + '_ {
+    bytes
+        .iter()
+        .enumerate()
+        .filter_map(|(i, b)| (*b == b'\n').then_some(i))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn columns_in_every_unit_on_non_ascii_text() {
+        let text = "eye right\n  keratometry 7.8 mm × 175\r\n  note \"Zoë 😀\" # ok\n";
+        let idx = LineIndex::new(text);
+        let hash = text.find('#').unwrap();
+        assert_eq!(idx.line_col(text, hash), (3, 16));
+        assert_eq!(idx.position(text, hash, ColumnUnit::Utf8).col, 19);
+        assert_eq!(idx.position(text, hash, ColumnUnit::Utf16).col, 16);
+        for unit in [ColumnUnit::Utf8, ColumnUnit::Utf16, ColumnUnit::Char] {
+            let pos = idx.position(text, hash, unit);
+            assert_eq!(idx.offset(text, pos, unit), hash);
+        }
+        // `\r` of a CRLF is not a column: end of line 2 is after "175".
+        let end2 = idx.line_span(text, 1).end;
+        assert_eq!(&text[end2..end2 + 2], "\r\n");
+    }
+
+    #[test]
+    fn clamps_out_of_range_positions() {
+        let text = "case\n  date 2026-01-02";
+        let idx = LineIndex::new(text);
+        let far = LinePos { line: 9, col: 0 };
+        assert_eq!(idx.offset(text, far, ColumnUnit::Utf16), text.len());
+        let long = LinePos { line: 0, col: 99 };
+        assert_eq!(idx.offset(text, long, ColumnUnit::Utf16), 4);
+        assert_eq!(idx.position(text, 999, ColumnUnit::Char).line, 1);
+    }
+}
