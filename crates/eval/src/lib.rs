@@ -1,1 +1,94 @@
-//! placeholder
+//! The parax evaluator: reads a parsed case file into the case model
+//! ([`model::Case`]), computes every derived value with its derivation
+//! ([`derived::Derived`]) and reports every finding as one kind of
+//! [`diagnostic::Diagnostic`]. The command line and the language server render
+//! these and compute nothing of their own.
+
+pub mod codes;
+mod compute;
+pub mod derived;
+pub mod diagnostic;
+mod expect;
+mod lower;
+pub mod model;
+pub mod read;
+pub mod schema;
+pub mod sources;
+pub mod units;
+
+pub use compute::slug;
+pub use derived::{Derived, DerivedValue};
+pub use diagnostic::{Diagnostic, Edit, Fix, Severity, GENERAL_CAUTION};
+pub use model::Case;
+
+use parax_syntax::Parsed;
+
+/// Everything known about one case file after evaluation.
+#[derive(Debug, Clone)]
+pub struct Evaluation {
+    /// The facts read from the file.
+    pub case: Case,
+    /// Every derived value, in block order.
+    pub derived: Vec<Derived>,
+    /// Every diagnostic (syntax, notation, units, clinical, expect), by position.
+    pub diagnostics: Vec<Diagnostic>,
+}
+
+impl Evaluation {
+    /// True when any diagnostic is an error (the file fails `parax check`).
+    pub fn has_errors(&self) -> bool {
+        self.diagnostics.iter().any(|d| d.severity == Severity::Error)
+    }
+}
+
+/// Evaluate a parsed file.
+pub fn evaluate(parsed: &Parsed) -> Evaluation {
+    let mut diagnostics: Vec<Diagnostic> = parsed.errors.iter().map(from_syntax).collect();
+    let case = lower::lower(parsed, &mut diagnostics);
+    let (derived, more) = evaluate_case(&case);
+    diagnostics.extend(more);
+    diagnostics.sort_by_key(|d| (d.span.start, d.severity));
+    Evaluation {
+        case,
+        derived,
+        diagnostics,
+    }
+}
+
+/// Parse and evaluate source text.
+pub fn evaluate_source(source: &str) -> (Parsed, Evaluation) {
+    let parsed = parax_syntax::parse(source);
+    let evaluation = evaluate(&parsed);
+    (parsed, evaluation)
+}
+
+/// Evaluate a case model (read from a file or from JSON): derived values, and the
+/// diagnostics of computation and `expect` lines.
+pub fn evaluate_case(case: &Case) -> (Vec<Derived>, Vec<Diagnostic>) {
+    let mut derived = Vec::new();
+    let mut diags = Vec::new();
+    compute::compute(case, &mut derived, &mut diags);
+    for e in &case.eyes {
+        expect::check(&compute::eye_block_id(e), &e.expects, &derived, &mut diags);
+    }
+    for s in &case.systems {
+        expect::check(&compute::system_block_id(s), &s.expects, &derived, &mut diags);
+    }
+    for f in &case.frames {
+        let id = match &f.name {
+            Some(n) => format!("frame.{}", slug(n)),
+            None => "frame".into(),
+        };
+        expect::check(&id, &f.expects, &derived, &mut diags);
+    }
+    (derived, diags)
+}
+
+fn from_syntax(e: &parax_syntax::SyntaxError) -> Diagnostic {
+    let mut d = Diagnostic::new(e.code, Severity::Error, e.span, e.message.clone());
+    d.hint = e.hint.clone();
+    if let Some(r) = &e.replacement {
+        d = d.fix(format!("write `{r}`"), e.span, r.clone());
+    }
+    d
+}

@@ -8,7 +8,7 @@
 use serde::Serialize;
 
 /// A physical dimension of a quantity.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, serde::Deserialize)]
 pub enum Dimension {
     /// Optical power or vergence; base unit dioptre.
     Power,
@@ -25,7 +25,7 @@ pub enum Dimension {
 }
 
 /// A unit of measure known to parax.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, serde::Deserialize)]
 pub enum Unit {
     /// Dioptre (D), 1/m.
     Dioptre,

@@ -1,0 +1,45 @@
+//! Every diagnostic code, with a title and a description, in one table. Codes are
+//! stable: a code once published keeps its meaning. docs/diagnostics.md is checked
+//! against this table by a test.
+
+/// One entry of the code table.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
+pub struct CodeInfo {
+    /// The code.
+    pub code: &'static str,
+    /// Short title.
+    pub title: &'static str,
+    /// What it means and what to do.
+    pub description: &'static str,
+}
+
+macro_rules! codes {
+    ($($name:ident = $code:literal, $title:literal, $desc:literal;)*) => {
+        $(#[doc = $title] pub const $name: &str = $code;)*
+        /// Every code with its title and description, in code order.
+        pub const ALL: &[CodeInfo] = &[$(CodeInfo { code: $code, title: $title, description: $desc }),*];
+    };
+}
+
+codes! {
+    UNEXPECTED = "P0001", "unreadable line", "The grammar cannot read this line: a character or token that no value can start with.";
+    UNKNOWN_BLOCK = "P0002", "unknown block", "A line at column 0 must open a block (case, eye, frame, spectacle-lens, contact-lens, system, model-eye).";
+    OUTSIDE_BLOCK = "P0003", "statement outside a block", "An indented statement stands before the first block header.";
+    UNTERMINATED_STRING = "P0004", "unterminated text", "A quoted text has no closing quote on its line.";
+    UNKNOWN_KEYWORD = "P0101", "unknown keyword", "The block does not accept this keyword; the hint names the closest one it does.";
+    BAD_VALUES = "P0102", "values do not fit", "The values after the keyword do not have the shape the keyword takes (see docs/notation.md).";
+    DUPLICATE = "P0103", "repeated statement", "A keyword that may appear once per block appears again; the later one is ignored.";
+    BAD_HEADER = "P0104", "incomplete block header", "The block header lacks its side or name, or has one that is not allowed.";
+    NOT_EVALUATED = "P0105", "not evaluated yet", "The statement is valid notation, but this version of parax does not compute anything from it yet.";
+    MISSING_UNIT = "P0201", "missing unit", "A physical quantity is written without its unit; the fix adds the usual one.";
+    WRONG_UNIT = "P0202", "wrong unit", "The unit does not measure the quantity the keyword takes (a length where a power is needed, say).";
+    IMPLAUSIBLE = "P0203", "implausible value", "The value is outside the range met in practice; the message names the range. Often a unit slip.";
+    BAD_AXIS = "P0204", "axis out of range", "Axes are written 1 to 180 degrees (ISO 8429); 0 is written 180.";
+    REFRACTIVE_SURGERY = "P0301", "keratometry after refractive surgery", "Keratometric corneal power is not valid after corneal refractive surgery.";
+    VERTEX_UNKNOWN = "P0302", "vertex distance not recorded", "The refraction is strong enough that the vertex distance matters, but it is not recorded.";
+    VERTEX_MATTERS = "P0303", "vertex compensation matters", "The power at the new vertex distance differs by at least 0.25 D from the power as measured.";
+    EXPECT_MISMATCH = "P0401", "recorded result differs", "An `expect` line records a value that the computed value does not match within tolerance.";
+    EXPECT_UNKNOWN = "P0402", "unknown expected value", "An `expect` line names a value the block does not compute.";
+    EXPECT_UNAVAILABLE = "P0403", "expected value not computed", "An `expect` line names a value that could not be computed from this block's inputs.";
+    SYSTEM_LAYOUT = "P0501", "system layout", "A lens system refers to an unknown lens, or its object or elements are out of order.";
+}

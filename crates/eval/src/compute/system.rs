@@ -1,0 +1,211 @@
+//! Derived values of a `system` block: per-lens vergences, images and
+//! magnifications by step-along vergence; the final image; equivalent,
+//! back-vertex and front-vertex power by ray-transfer matrices.
+
+use super::{n4, slug, Out};
+use crate::codes;
+use crate::derived::DerivedValue as V;
+use crate::diagnostic::{Diagnostic, Severity};
+use crate::model::{ObjectAt, System, SystemElement};
+use crate::sources as src;
+use parax_optics::system::{system_matrix, system_powers, trace, Element, ImagePlace, Object};
+
+/// `system.<slug of the name>`.
+pub fn block_id(s: &System) -> String {
+    format!("system.{}", slug(&s.name))
+}
+
+fn place(p: ImagePlace, label: &str) -> V {
+    match p {
+        ImagePlace::AtInfinity => V::Infinity,
+        ImagePlace::At { after_element_m, .. } => V::Distance {
+            metres: after_element_m,
+            from: label.to_owned(),
+        },
+    }
+}
+
+pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+    let lenses: Vec<(usize, &str)> = s
+        .elements
+        .iter()
+        .enumerate()
+        .filter_map(|(i, e)| match &e.value {
+            SystemElement::Lens { label, .. } => Some((i, label.as_str())),
+            SystemElement::Gap { .. } => None,
+        })
+        .collect();
+    let Some(&(first_i, first_label)) = lenses.first() else {
+        diags.push(
+            Diagnostic::new(codes::SYSTEM_LAYOUT, Severity::Warning, s.span, "this system has no lens")
+                .hint("add `lens LABEL POWER D` lines"),
+        );
+        return;
+    };
+    if first_i > 0 {
+        diags.push(
+            Diagnostic::new(
+                codes::SYSTEM_LAYOUT,
+                Severity::Error,
+                s.elements[0].span,
+                "a gap before the first lens has no meaning",
+            )
+            .hint("the object distance is measured to the first lens; remove this gap"),
+        );
+        return;
+    }
+    let object = match &s.object.value {
+        ObjectAt::Infinity => Object::AtInfinity,
+        ObjectAt::Before { distance, label, label_span } => {
+            if label != first_label {
+                let known = lenses.iter().any(|(_, l)| l == label);
+                let msg = if known {
+                    format!("the object distance must be measured to the first lens, `{first_label}`")
+                } else {
+                    format!("there is no lens `{label}` in this system")
+                };
+                diags.push(
+                    Diagnostic::new(codes::SYSTEM_LAYOUT, Severity::Error, *label_span, msg)
+                        .fix(format!("measure from `{first_label}`"), *label_span, first_label),
+                );
+                return;
+            }
+            Object::Distance { before_first_m: *distance }
+        }
+    };
+    let elements: Vec<Element> = s
+        .elements
+        .iter()
+        .map(|e| match &e.value {
+            SystemElement::Lens { power, .. } => Element::ThinLens { power: *power },
+            SystemElement::Gap { length, index } => Element::Gap { length_m: *length, index: *index },
+        })
+        .collect();
+    let t = trace(object, &elements, 1.0);
+    let mut chain = match object {
+        Object::AtInfinity => "L = 0 (object at infinity)".to_owned(),
+        Object::Distance { before_first_m } => format!("L = 1/(−{}) = {}", n4(before_first_m), n4(-1.0 / before_first_m)),
+    };
+    for step in &t.steps {
+        let el = &s.elements[step.element_index];
+        let SystemElement::Lens { label, power } = &el.value else { continue };
+        let span = el.span;
+        let line = format!(
+            "{label}: L = {}, L' = L + F = {} + {} = {}",
+            n4(step.incident_vergence),
+            n4(step.incident_vergence),
+            n4(*power),
+            n4(step.emergent_vergence)
+        );
+        chain.push_str("; ");
+        chain.push_str(&line);
+        out.push(
+            &format!("{label}.vergence-in"),
+            &format!("vergence arriving at {label}"),
+            V::Power { dioptres: step.incident_vergence },
+            span,
+            "L2 = L1' / (1 − (d/n)·L1')",
+            format!("{chain}"),
+            src::VERGENCE,
+        );
+        out.push(
+            &format!("{label}.vergence-out"),
+            &format!("vergence leaving {label}"),
+            V::Power { dioptres: step.emergent_vergence },
+            span,
+            "L' = L + F",
+            line.clone(),
+            src::VERGENCE,
+        );
+        let image_sub = match step.image {
+            ImagePlace::AtInfinity => "L' = 0: image at infinity".to_owned(),
+            ImagePlace::At { after_element_m, .. } => {
+                format!("l' = n/L' = 1/{} = {} m", n4(step.emergent_vergence), n4(after_element_m))
+            }
+        };
+        out.push(
+            &format!("{label}.image"),
+            &format!("image formed by {label}"),
+            place(step.image, label),
+            span,
+            "l' = n / L'",
+            image_sub,
+            src::VERGENCE,
+        );
+        if let Some(m) = step.magnification {
+            out.push(
+                &format!("{label}.magnification"),
+                &format!("lateral magnification at {label}"),
+                V::Number { value: m },
+                span,
+                "m = L / L'",
+                format!("m = {} / {} = {}", n4(step.incident_vergence), n4(step.emergent_vergence), n4(m)),
+                src::VERGENCE,
+            );
+        }
+    }
+    let &(last_i, last_label) = lenses.last().expect("at least one lens");
+    let last_span = s.elements[last_i].span;
+    out.push(
+        "image",
+        "final image",
+        place(t.final_image, last_label),
+        last_span,
+        "step-along vergence through every element",
+        chain.clone(),
+        src::VERGENCE,
+    );
+    if let Some(m) = t.total_magnification {
+        let factors: Vec<String> = t.steps.iter().filter_map(|s| s.magnification.map(n4)).collect();
+        out.push(
+            "magnification",
+            "total lateral magnification",
+            V::Number { value: m },
+            last_span,
+            "m = m1 · m2 · …",
+            format!("{} = {}", factors.join(" · "), n4(m)),
+            src::VERGENCE,
+        );
+    }
+    let kind = match (t.final_image, t.erect) {
+        (ImagePlace::AtInfinity, _) => "at infinity".to_owned(),
+        (ImagePlace::At { real, .. }, erect) => {
+            let r = if real { "real" } else { "virtual" };
+            match erect {
+                Some(true) => format!("{r}, erect"),
+                Some(false) => format!("{r}, inverted"),
+                None => r.to_owned(),
+            }
+        }
+    };
+    out.push(
+        "image-kind",
+        "kind of final image",
+        V::Text { text: kind.clone() },
+        last_span,
+        "real when the final vergence L' > 0; erect when m > 0",
+        format!("{kind}"),
+        src::VERGENCE,
+    );
+    // Powers by matrices, up to the last lens (a trailing gap is image space).
+    let m = system_matrix(&elements[..=last_i]);
+    let p = system_powers(&m);
+    let msub = format!("A = {}, B = {}, C = {}, D = {}", n4(m.a), n4(m.b), n4(m.c), n4(m.d));
+    for (name, label, formula, value) in [
+        ("equivalent-power", "equivalent power", "F = −C", p.equivalent),
+        ("back-vertex-power", "back vertex power", "F'v = −C / A", p.back_vertex),
+        ("front-vertex-power", "front vertex power", "Fv = −C / D", p.front_vertex),
+    ] {
+        if value.is_finite() {
+            out.push(
+                name,
+                label,
+                V::Power { dioptres: value },
+                last_span,
+                formula,
+                format!("{msub}; {formula} = {}", n4(value)),
+                src::MATRICES,
+            );
+        }
+    }
+}

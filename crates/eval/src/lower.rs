@@ -1,0 +1,438 @@
+//! From the syntax tree to the case model: each block's statements are matched
+//! against the schema and read with [`Reader`]; whatever does not fit becomes a
+//! diagnostic and the rest of the block is still read.
+
+use crate::codes;
+use crate::diagnostic::{Diagnostic, Severity};
+use crate::model::*;
+use crate::read::Reader;
+use crate::schema;
+use crate::units::{self as u};
+use parax_optics::keratometry::{keratometric_radius, KERATOMETRIC_INDEX};
+use parax_syntax::{Block, BlockKind, LineKind, Parsed, Span, Statement, Symbol, Value, ValueKind};
+
+/// Read every block of `p` into a [`Case`], appending diagnostics to `diags`.
+pub fn lower(p: &Parsed, diags: &mut Vec<Diagnostic>) -> Case {
+    let mut case = Case::default();
+    for block in &p.blocks {
+        lower_block(p, block, &mut case, diags);
+    }
+    case
+}
+
+fn statement_span(p: &Parsed, line: usize) -> Span {
+    let l = &p.lines[line];
+    let end = l.comment.map_or(l.span.end, |c| c.start);
+    let text = &p.source[l.span.start..end];
+    let start = l.span.start + (text.len() - text.trim_start().len());
+    Span::new(start, start + text.trim().len())
+}
+
+fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagnostic>) {
+    let header = p.lines[block.header].statement().expect("a block starts with a header");
+    let header_span = statement_span(p, block.header);
+    let form = schema::header_form(block.kind);
+    let mut r = Reader::new(p, header, diags);
+    let mut target = match block.kind {
+        BlockKind::Case => {
+            if !r.at_end() {
+                case.info.title = r.text_value("the case title", form);
+            }
+            r.finish(form);
+            Target::Case
+        }
+        BlockKind::Eye => {
+            let side = side(&mut r, form);
+            let date = if r.at_end() { None } else { r.date(form) };
+            r.finish(form);
+            match side {
+                Some(side) => Target::Eye(Box::new(Eye {
+                    side,
+                    date,
+                    span: header_span,
+                    refraction: None,
+                    add: None,
+                    keratometry: None,
+                    keratometric_index: None,
+                    posterior_radius: None,
+                    corneal_thickness: None,
+                    axial_length: None,
+                    pd: None,
+                    age: None,
+                    refractive_surgery: None,
+                    expects: Vec::new(),
+                })),
+                None => Target::Skip,
+            }
+        }
+        BlockKind::Frame => {
+            let name = if r.at_end() { None } else { r.text_value("the frame name", form) };
+            r.finish(form);
+            Target::Frame(Frame {
+                name,
+                span: header_span,
+                ..Frame::default()
+            })
+        }
+        BlockKind::System => {
+            let name = if r.at_end() {
+                r.missing::<()>("the system name", form);
+                format!("system-{}", case.systems.len() + 1)
+            } else {
+                r.text_value("the system name", form).unwrap_or_default()
+            };
+            r.finish(form);
+            Target::System(System {
+                name,
+                span: header_span,
+                object: At {
+                    value: ObjectAt::Infinity,
+                    span: header_span,
+                },
+                elements: Vec::new(),
+                expects: Vec::new(),
+            })
+        }
+        BlockKind::SpectacleLens | BlockKind::ContactLens => {
+            side(&mut r, form);
+            r.finish(form);
+            not_evaluated(block.kind, header_span, diags);
+            Target::Later
+        }
+        BlockKind::ModelEye => {
+            r.text_value("the model name", form);
+            r.finish(form);
+            not_evaluated(block.kind, header_span, diags);
+            Target::Later
+        }
+    };
+    let mut seen: Vec<&str> = Vec::new();
+    for line in block.body() {
+        let LineKind::Statement { statement } = &p.lines[line].kind else {
+            continue;
+        };
+        let span = statement_span(p, line);
+        let kw = p.keyword(statement);
+        let Some(spec) = schema::keyword(block.kind, kw) else {
+            diags.push(unknown_keyword(block.kind, kw, statement.keyword));
+            continue;
+        };
+        if !spec.repeatable {
+            if seen.contains(&kw) {
+                diags.push(
+                    Diagnostic::new(
+                        codes::DUPLICATE,
+                        Severity::Warning,
+                        statement.keyword,
+                        format!("`{kw}` appears more than once in this block; this one is ignored"),
+                    )
+                    .hint("keep one, or record a later visit as a block of its own"),
+                );
+                continue;
+            }
+            seen.push(kw);
+        }
+        let mut r = Reader::new(p, statement, diags);
+        lower_statement(&mut r, &mut target, kw, spec.form, span, statement);
+    }
+    match target {
+        Target::Eye(eye) => case.eyes.push(*eye),
+        Target::Frame(f) => case.frames.push(f),
+        Target::System(s) => case.systems.push(s),
+        Target::Case | Target::Skip | Target::Later => {}
+    }
+}
+
+enum Target {
+    Case,
+    Eye(Box<Eye>),
+    Frame(Frame),
+    System(System),
+    /// Blocks checked for notation, not evaluated in this version.
+    Later,
+    /// A block whose header could not be read.
+    Skip,
+}
+
+fn not_evaluated(kind: BlockKind, span: Span, diags: &mut Vec<Diagnostic>) {
+    diags.push(
+        Diagnostic::new(
+            codes::NOT_EVALUATED,
+            Severity::Info,
+            span,
+            format!(
+                "this version of parax checks the notation of `{}` blocks but computes nothing from them yet",
+                kind.keyword()
+            ),
+        )
+        .hint("units and values are still checked; derived values for this block come in a later version"),
+    );
+}
+
+fn side(r: &mut Reader<'_>, form: &str) -> Option<Side> {
+    match r.word_of(&["right", "left"], "a side", form)? {
+        "right" => Some(Side::Right),
+        _ => Some(Side::Left),
+    }
+}
+
+fn unknown_keyword(kind: BlockKind, kw: &str, span: Span) -> Diagnostic {
+    let names = schema::keywords(kind).iter().map(|k| k.name);
+    let mut d = Diagnostic::new(
+        codes::UNKNOWN_KEYWORD,
+        Severity::Error,
+        span,
+        format!("`{kw}` is not a keyword of `{}` blocks", kind.keyword()),
+    );
+    if let Some(s) = parax_syntax::suggest::did_you_mean(kw, names) {
+        d = d.hint(format!("did you mean `{s}`?")).fix(format!("write `{s}`"), span, s);
+    } else if let Some(other) = BlockKind::ALL
+        .into_iter()
+        .find(|k| *k != kind && schema::keyword(*k, kw).is_some())
+    {
+        d = d.hint(format!("`{kw}` belongs in a `{}` block", other.keyword()));
+    } else {
+        let all: Vec<&str> = schema::keywords(kind).iter().map(|k| k.name).collect();
+        d = d.hint(format!("`{}` blocks take: {}", kind.keyword(), all.join(", ")));
+    }
+    d
+}
+
+fn at<T>(value: Option<T>, span: Span) -> Option<At<T>> {
+    value.map(|value| At { value, span })
+}
+
+fn lower_statement(
+    r: &mut Reader<'_>,
+    target: &mut Target,
+    kw: &str,
+    form: &str,
+    span: Span,
+    statement: &Statement,
+) {
+    if kw == "expect" {
+        let e = read_expect(r, form, span);
+        match target {
+            Target::Eye(eye) => eye.expects.extend(e),
+            Target::Frame(f) => f.expects.extend(e),
+            Target::System(s) => s.expects.extend(e),
+            Target::Later => {
+                r.diags.push(Diagnostic::new(
+                    codes::EXPECT_UNAVAILABLE,
+                    Severity::Warning,
+                    span,
+                    "this block computes nothing yet in this version, so the recorded result is not checked",
+                ));
+            }
+            Target::Case | Target::Skip => {}
+        }
+        return;
+    }
+    if kw == "note" {
+        let t = r.text_value("the note", form);
+        if let (Target::Case, Some(t)) = (&*target, t) {
+            let _ = t;
+        }
+        r.finish(form);
+        return;
+    }
+    match target {
+        Target::Case => {
+            // Case facts are recorded for reports; only their form is checked here.
+            match kw {
+                "date" => {
+                    r.date(form);
+                }
+                "age" => {
+                    r.quantity(&u::AGE, form);
+                }
+                "tag" => {
+                    r.word("a tag", form);
+                }
+                _ => {}
+            }
+        }
+        Target::Eye(eye) => match kw {
+            "refraction" => {
+                let rx = r.rx(form);
+                let vertex = if r.symbol_if(Symbol::At) { r.quantity(&u::VERTEX, form) } else { None };
+                if let Some(rx) = rx {
+                    eye.refraction = at(Some(Refraction { rx, vertex }), span);
+                }
+            }
+            "add" => eye.add = at(r.quantity(&u::ADD, form), span),
+            "keratometry" => eye.keratometry = at(read_keratometry(r, form), span),
+            "keratometric-index" => eye.keratometric_index = at(r.quantity(&u::INDEX, form), span),
+            "posterior-radius" => eye.posterior_radius = at(r.quantity(&u::POSTERIOR_RADIUS, form), span),
+            "corneal-thickness" => eye.corneal_thickness = at(r.quantity(&u::CORNEAL_THICKNESS, form), span),
+            "axial-length" => eye.axial_length = at(r.quantity(&u::AXIAL_LENGTH, form), span),
+            "pd" => eye.pd = at(r.quantity(&u::PD, form), span),
+            "age" => eye.age = at(r.quantity(&u::AGE, form), span),
+            "refractive-surgery" => eye.refractive_surgery = at(Some(r.rest()), span),
+            _ => {}
+        },
+        Target::Frame(f) => {
+            let spec = match kw {
+                "vertex" => &u::VERTEX,
+                "pantoscopic-tilt" => &u::TILT,
+                "face-form" => &u::FACE_FORM,
+                "fitting-height" => &u::FITTING_HEIGHT,
+                "reading-drop" => &u::READING_DROP,
+                "near-inset" => &u::NEAR_INSET,
+                _ => &u::CENTRE_DISTANCE,
+            };
+            let v = at(r.quantity(spec, form), span);
+            let slot = match kw {
+                "vertex" => &mut f.vertex,
+                "pantoscopic-tilt" => &mut f.pantoscopic_tilt,
+                "face-form" => &mut f.face_form,
+                "fitting-height" => &mut f.fitting_height,
+                "reading-drop" => &mut f.reading_drop,
+                "near-inset" => &mut f.near_inset,
+                _ => &mut f.centre_distance,
+            };
+            *slot = v;
+        }
+        Target::System(s) => match kw {
+            "object" => {
+                if r.word_if("at") || r.word_if("infinity") {
+                    r.word_if("infinity");
+                    s.object = At { value: ObjectAt::Infinity, span };
+                } else if let Some(d) = r.quantity(&u::OBJECT_DISTANCE, form) {
+                    if r.word_if("before") {
+                        if let Some((label, label_span)) = r.word("a lens label", form) {
+                            let value = ObjectAt::Before { distance: d, label: label.to_owned(), label_span };
+                            s.object = At { value, span };
+                        }
+                    } else {
+                        r.missing::<()>("`before LABEL`", form);
+                    }
+                }
+            }
+            "lens" => {
+                let label = r.word("a lens label", form);
+                let power = r.quantity(&u::LENS_POWER, form);
+                if let (Some((label, lspan)), Some(power)) = (label, power) {
+                    if s.elements.iter().any(|e| matches!(&e.value, SystemElement::Lens { label: l, .. } if l == label)) {
+                        r.diags.push(Diagnostic::new(
+                            codes::SYSTEM_LAYOUT,
+                            Severity::Error,
+                            lspan,
+                            format!("the label `{label}` is already used in this system"),
+                        ));
+                    }
+                    s.elements.push(At { value: SystemElement::Lens { label: label.to_owned(), power }, span });
+                }
+            }
+            "gap" => {
+                let length = r.quantity(&u::GAP, form);
+                let index = if r.word_if("index") { r.quantity(&u::INDEX, form) } else { Some(1.0) };
+                if let (Some(length), Some(index)) = (length, index) {
+                    s.elements.push(At { value: SystemElement::Gap { length, index }, span });
+                }
+            }
+            _ => {
+                r.rest();
+            }
+        },
+        Target::Later => {
+            // Keep the values' units honest even where nothing is computed yet.
+            check_units_only(r, statement);
+        }
+        Target::Skip => {
+            r.rest();
+        }
+    }
+    r.finish(form);
+}
+
+fn check_units_only(r: &mut Reader<'_>, statement: &Statement) {
+    for v in &statement.values {
+        if let ValueKind::Number { unit: Some(us), .. } = v.kind {
+            let t = r.text(us);
+            if u::unit_of(t).is_none() {
+                r.diags.push(Diagnostic::new(
+                    codes::WRONG_UNIT,
+                    Severity::Error,
+                    us,
+                    format!("`{t}` is not a unit of the notation"),
+                ));
+            }
+        }
+    }
+    r.rest();
+}
+
+fn read_keratometry(r: &mut Reader<'_>, form: &str) -> Option<[KMeridian; 2]> {
+    let index = KERATOMETRIC_INDEX;
+    let mut out = Vec::with_capacity(2);
+    for i in 0..2 {
+        if i == 1 && !r.symbol_if(Symbol::Comma) {
+            return match r.peek() {
+                Some(v) => {
+                    let t = r.text(v.span);
+                    r.fail(v.span, format!("expected `,` and the second meridian, found `{t}`"), form)
+                }
+                None => r.missing("the second meridian (`, RADIUS mm x MERIDIAN`)", form),
+            };
+        }
+        let is_power = matches!(
+            r.peek(),
+            Some(Value { kind: ValueKind::Number { unit: Some(us), .. }, .. }) if matches!(r.text(*us), "D")
+        );
+        let (radius, as_power) = if is_power {
+            (keratometric_radius(r.quantity(&u::K_POWER, form)?, index), true)
+        } else {
+            (r.quantity(&u::CORNEAL_RADIUS, form)?, false)
+        };
+        if !(r.axis_sign_if() || r.symbol_if(Symbol::At)) {
+            return r.missing("`x` and the meridian", form);
+        }
+        let meridian = r.axis(&u::MERIDIAN, form)?;
+        out.push(KMeridian { radius, meridian, as_power });
+    }
+    Some([out[0], out[1]])
+}
+
+fn read_expect(r: &mut Reader<'_>, form: &str, span: Span) -> Option<Expect> {
+    let (name, name_span) = r.word("the name of a computed value", form)?;
+    let mut tokens = Vec::new();
+    let mut tolerance = None;
+    let mut value_span: Option<Span> = None;
+    while let Some(v) = r.next_value() {
+        if !matches!(v.kind, ValueKind::Symbol { symbol: Symbol::PlusMinus }) && tolerance.is_none() {
+            value_span = Some(value_span.map_or(v.span, |s| s.cover(v.span)));
+        }
+        match &v.kind {
+            ValueKind::Number { number, value, unit, decimals, .. } => {
+                let unit = unit.and_then(|us| u::unit_of(r.text(us)));
+                let half = 0.5 * 10f64.powi(-(*decimals as i32));
+                let (value, half_step) = match unit {
+                    Some(un) => (un.to_base(*value), un.to_base(half)),
+                    None => (*value, half),
+                };
+                tokens.push(ExpectToken::Number { value, unit, half_step, span: *number });
+            }
+            ValueKind::Symbol { symbol: Symbol::PlusMinus } => {
+                let tv = r.next_value();
+                match tv.map(|t| &t.kind) {
+                    Some(ValueKind::Number { value, unit, .. }) => {
+                        let unit = unit.and_then(|us| u::unit_of(r.text(us)));
+                        tolerance = Some(unit.map_or(*value, |un| un.to_base(*value)));
+                    }
+                    _ => {
+                        return r.missing("the tolerance after `±`", form);
+                    }
+                }
+            }
+            ValueKind::Word | ValueKind::Text { .. } => {
+                let t = r.text(v.span);
+                tokens.push(ExpectToken::Word { word: t.trim_matches('"').to_owned() })
+            }
+            ValueKind::AxisSign | ValueKind::Symbol { .. } | ValueKind::Date { .. } => {
+                tokens.push(ExpectToken::Mark { mark: r.text(v.span).to_owned() })
+            }
+        }
+    }
+    Some(Expect { name: name.to_owned(), name_span, tokens, tolerance, value_span, span })
+}
