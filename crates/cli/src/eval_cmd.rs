@@ -1,0 +1,48 @@
+//! `parax eval`: every derived value of one file.
+
+use crate::render::{human, json};
+use crate::{files, Format};
+use parax_eval::evaluate_source;
+use std::path::Path;
+
+/// Run `parax eval`; returns the exit status.
+pub fn run(path: &Path, format: Format, explain: bool, quiet: bool) -> u8 {
+    let source = match files::read(path) {
+        Ok(s) => s,
+        Err(e) => {
+            eprintln!("parax: {e}");
+            return 2;
+        }
+    };
+    let name = files::display(path);
+    let (parsed, ev) = evaluate_source(&source);
+    match format {
+        Format::Json => {
+            let v = json::eval_report(&name, &parsed, &ev.derived, &ev.diagnostics);
+            println!("{}", serde_json::to_string_pretty(&v).expect("JSON of plain values"));
+        }
+        Format::Human => {
+            print!("{}", human::derived_table(&parsed, &ev.derived, explain));
+            if ev.derived.is_empty() {
+                println!("(no derived values: record a refraction, keratometry or a lens system)");
+            }
+            let problems: Vec<_> = ev
+                .diagnostics
+                .iter()
+                .filter(|d| d.severity != parax_eval::Severity::Info)
+                .cloned()
+                .collect();
+            if !problems.is_empty() {
+                eprint!("{}", human::diagnostics(&name, &parsed, &problems));
+            }
+            if !quiet {
+                println!("\n{}", human::caution_line());
+            }
+        }
+    }
+    if ev.has_errors() {
+        1
+    } else {
+        0
+    }
+}
