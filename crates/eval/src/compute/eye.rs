@@ -253,7 +253,7 @@ fn vertex_transfer(
         &format!("{label}, to 0.25 D"),
         sphcyl(&rounded),
         span,
-        "each principal meridian rounded to the nearest 0.25 D",
+        "sphere and cylinder each rounded to the nearest 0.25 D",
         format!("{} → {}", show(&moved), show(&rounded)),
         src::ROUNDING,
     )
