@@ -32,6 +32,7 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
     let header = p.lines[block.header].statement().expect("a block starts with a header");
     let header_span = statement_span(p, block.header);
     let form = schema::header_form(block.kind);
+    let first_header_diag = diags.len();
     let mut r = Reader::new(p, header, diags);
     let mut target = match block.kind {
         BlockKind::Case => {
@@ -106,6 +107,12 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
             Target::Later
         }
     };
+    // Shape errors on the header line are header errors.
+    for d in &mut diags[first_header_diag..] {
+        if d.code == codes::BAD_VALUES {
+            d.code = codes::BAD_HEADER;
+        }
+    }
     let mut seen: Vec<&str> = Vec::new();
     for line in block.body() {
         let LineKind::Statement { statement } = &p.lines[line].kind else {
@@ -255,9 +262,11 @@ fn lower_statement(
         Target::Eye(eye) => match kw {
             "refraction" => {
                 let rx = r.rx(form);
-                let vertex = if r.symbol_if(Symbol::At) { r.quantity(&u::VERTEX, form) } else { None };
+                let written = r.symbol_if(Symbol::At);
+                let vertex = if written { r.quantity(&u::VERTEX, form) } else { None };
+                let vertex_unreadable = written && vertex.is_none();
                 if let Some(rx) = rx {
-                    eye.refraction = at(Some(Refraction { rx, vertex }), span);
+                    eye.refraction = at(Some(Refraction { rx, vertex, vertex_unreadable }), span);
                 }
             }
             "add" => eye.add = at(r.quantity(&u::ADD, form), span),
@@ -295,9 +304,12 @@ fn lower_statement(
         }
         Target::System(s) => match kw {
             "object" => {
-                if r.word_if("at") || r.word_if("infinity") {
-                    r.word_if("infinity");
-                    s.object = At { value: ObjectAt::Infinity, span };
+                if r.word_if("at") {
+                    if r.word_if("infinity") {
+                        s.object = At { value: ObjectAt::Infinity, span };
+                    } else {
+                        r.missing::<()>("`infinity`", form);
+                    }
                 } else if let Some(d) = r.quantity(&u::OBJECT_DISTANCE, form) {
                     if r.word_if("before") {
                         if let Some((label, label_span)) = r.word("a lens label", form) {

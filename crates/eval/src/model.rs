@@ -52,6 +52,10 @@ pub struct Refraction {
     pub rx: Rx,
     /// Vertex distance of the measurement, metres; `None` when not recorded.
     pub vertex: Option<f64>,
+    /// True when a vertex distance was written but could not be read (already
+    /// reported), so that "not recorded" is not reported again.
+    #[serde(default)]
+    pub vertex_unreadable: bool,
 }
 
 /// One principal meridian of a keratometry reading.

@@ -1,9 +1,9 @@
 //! Byte spans into the source text.
 
-use serde::Serialize;
+use serde::{Deserialize, Serialize};
 
 /// A half-open byte range `start..end` into the source text of one file.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Default, Serialize, PartialOrd, Ord)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Default, Serialize, Deserialize, PartialOrd, Ord)]
 pub struct Span {
     /// First byte of the range.
     pub start: usize,

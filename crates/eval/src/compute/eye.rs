@@ -167,7 +167,7 @@ fn refraction(
             vertex_transfer(&rx, d, 0.0, "corneal-plane", "at the corneal plane", span, out, diags, strongest);
         }
         Some(_) => {}
-        None if strongest > MEANINGFUL_CHANGE_THRESHOLD_D => diags.push(
+        None if strongest > MEANINGFUL_CHANGE_THRESHOLD_D && !r.value.vertex_unreadable => diags.push(
             Diagnostic::new(
                 codes::VERTEX_UNKNOWN,
                 Severity::Warning,
