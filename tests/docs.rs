@@ -13,8 +13,7 @@ fn read_doc(name: &str) -> String {
         .join("..")
         .join("docs")
         .join(name);
-    std::fs::read_to_string(&path)
-        .unwrap_or_else(|e| panic!("cannot read {}: {e}", path.display()))
+    std::fs::read_to_string(&path).unwrap_or_else(|e| panic!("cannot read {}: {e}", path.display()))
 }
 
 /// The lines of the level-2 section whose heading line is exactly `heading`, up to
@@ -66,10 +65,20 @@ fn every_keyword_is_documented_in_its_block_section() {
             check_keyword(&heading, &lines, &body, spec, &mut problems);
         }
     }
-    assert!(problems.is_empty(), "docs/notation.md is out of date:\n{}", problems.join("\n"));
+    assert!(
+        problems.is_empty(),
+        "docs/notation.md is out of date:\n{}",
+        problems.join("\n")
+    );
 }
 
-fn check_keyword(heading: &str, lines: &[&str], body: &str, spec: &KeywordSpec, problems: &mut Vec<String>) {
+fn check_keyword(
+    heading: &str,
+    lines: &[&str],
+    body: &str,
+    spec: &KeywordSpec,
+    problems: &mut Vec<String>,
+) {
     let name = format!("`{}`", spec.name);
     if !body.contains(&name) {
         problems.push(format!("{heading}: keyword {name} is not documented"));
@@ -85,7 +94,10 @@ fn check_keyword(heading: &str, lines: &[&str], body: &str, spec: &KeywordSpec, 
         return;
     };
     if row.len() != 8 {
-        problems.push(format!("{heading}: the row of {name} has {} cells, not 8", row.len()));
+        problems.push(format!(
+            "{heading}: the row of {name} has {} cells, not 8",
+            row.len()
+        ));
         return;
     }
     if row[3] != yes_no(spec.repeatable) {
@@ -121,11 +133,25 @@ fn every_code_has_its_heading_in_diagnostics() {
     }
     // And no heading for a code that does not exist (or whose title changed).
     for h in &headings {
-        let Some(code) = h[3..].split_whitespace().next() else { continue };
-        let looks_like_code = code.len() == 5 && code.starts_with('P') && code[1..].bytes().all(|b| b.is_ascii_digit());
-        if looks_like_code && !codes::ALL.iter().any(|i| format!("## {} {}", i.code, i.title) == *h) {
-            problems.push(format!("heading `{h}` matches no code in parax_eval::codes::ALL"));
+        let Some(code) = h[3..].split_whitespace().next() else {
+            continue;
+        };
+        let looks_like_code = code.len() == 5
+            && code.starts_with('P')
+            && code[1..].bytes().all(|b| b.is_ascii_digit());
+        if looks_like_code
+            && !codes::ALL
+                .iter()
+                .any(|i| format!("## {} {}", i.code, i.title) == *h)
+        {
+            problems.push(format!(
+                "heading `{h}` matches no code in parax_eval::codes::ALL"
+            ));
         }
     }
-    assert!(problems.is_empty(), "docs/diagnostics.md is out of date:\n{}", problems.join("\n"));
+    assert!(
+        problems.is_empty(),
+        "docs/diagnostics.md is out of date:\n{}",
+        problems.join("\n")
+    );
 }

@@ -30,8 +30,16 @@ fn check_one(path: &Path, format: Format) -> Result<(Checked, Option<serde_json:
         }] += 1;
     }
     let expects = ev.case.eyes.iter().map(|e| e.expects.len()).sum::<usize>()
-        + ev.case.systems.iter().map(|s| s.expects.len()).sum::<usize>()
-        + ev.case.frames.iter().map(|f| f.expects.len()).sum::<usize>();
+        + ev.case
+            .systems
+            .iter()
+            .map(|s| s.expects.len())
+            .sum::<usize>()
+        + ev.case
+            .frames
+            .iter()
+            .map(|f| f.expects.len())
+            .sum::<usize>();
     Ok(match format {
         Format::Human => (
             Checked {
@@ -65,8 +73,8 @@ pub fn run(paths: &[PathBuf], format: Format, quiet: bool) -> u8 {
         match r {
             Ok((c, j)) => {
                 let _ = out.write_all(c.report.as_bytes());
-                for i in 0..3 {
-                    totals[i] += c.counts[i];
+                for (total, n) in totals.iter_mut().zip(c.counts) {
+                    *total += n;
                 }
                 expects += c.expects;
                 json_files.extend(j);
@@ -80,7 +88,11 @@ pub fn run(paths: &[PathBuf], format: Format, quiet: bool) -> u8 {
     match format {
         Format::Json => {
             let v = json::check_report(json_files, totals, list.len(), &io_errors);
-            let _ = writeln!(out, "{}", serde_json::to_string_pretty(&v).expect("JSON of plain values"));
+            let _ = writeln!(
+                out,
+                "{}",
+                serde_json::to_string_pretty(&v).expect("JSON of plain values")
+            );
         }
         Format::Human if !quiet => {
             let _ = writeln!(out, "{}", human::summary(list.len(), totals, expects));

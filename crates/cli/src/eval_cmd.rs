@@ -19,7 +19,10 @@ pub fn run(path: &Path, format: Format, explain: bool, quiet: bool) -> u8 {
     match format {
         Format::Json => {
             let v = json::eval_report(&name, &parsed, &ev.derived, &ev.diagnostics);
-            println!("{}", serde_json::to_string_pretty(&v).expect("JSON of plain values"));
+            println!(
+                "{}",
+                serde_json::to_string_pretty(&v).expect("JSON of plain values")
+            );
         }
         Format::Human => {
             print!("{}", human::derived_table(&parsed, &ev.derived, explain));

@@ -9,7 +9,11 @@ pub const EXTENSION: &str = "parax";
 /// list means the current folder. Paths that do not exist are returned as errors.
 pub fn collect(paths: &[PathBuf]) -> (Vec<PathBuf>, Vec<String>) {
     let default = [PathBuf::from(".")];
-    let paths = if paths.is_empty() { &default[..] } else { paths };
+    let paths = if paths.is_empty() {
+        &default[..]
+    } else {
+        paths
+    };
     let mut files = Vec::new();
     let mut errors = Vec::new();
     for p in paths {
@@ -17,7 +21,9 @@ pub fn collect(paths: &[PathBuf]) -> (Vec<PathBuf>, Vec<String>) {
             let walk = walkdir::WalkDir::new(p).sort_by_file_name().into_iter();
             for entry in walk.filter_entry(|e| !is_hidden_or_build(e.path(), p)) {
                 match entry {
-                    Ok(e) if e.file_type().is_file() && has_extension(e.path()) => files.push(e.into_path()),
+                    Ok(e) if e.file_type().is_file() && has_extension(e.path()) => {
+                        files.push(e.into_path())
+                    }
                     Ok(_) => {}
                     Err(err) => errors.push(format!("{}: {err}", p.display())),
                 }
@@ -37,9 +43,9 @@ fn has_extension(p: &Path) -> bool {
 
 fn is_hidden_or_build(p: &Path, root: &Path) -> bool {
     p != root
-        && p.file_name()
-            .and_then(|n| n.to_str())
-            .is_some_and(|n| (n.starts_with('.') && n.len() > 1) || n == "target" || n == "node_modules")
+        && p.file_name().and_then(|n| n.to_str()).is_some_and(|n| {
+            (n.starts_with('.') && n.len() > 1) || n == "target" || n == "node_modules"
+        })
 }
 
 /// Read a file (or standard input for `-`) as UTF-8.

@@ -40,7 +40,10 @@ pub fn run(paths: &[PathBuf], check: bool) -> u8 {
         }
         unformatted += 1;
         if check {
-            println!("{}: not in canonical layout (run `parax fmt` on it)", files::display(path));
+            println!(
+                "{}: not in canonical layout (run `parax fmt` on it)",
+                files::display(path)
+            );
         } else if let Err(e) = std::fs::write(path, formatted) {
             eprintln!("parax: {}: {e}", files::display(path));
             failed = true;

@@ -12,7 +12,8 @@ use clap::{Parser, Subcommand, ValueEnum};
 use std::path::PathBuf;
 use std::process::ExitCode;
 
-const CAUTION_HELP: &str = "Caution: parax computes values as aids. Verify every value clinically; \
+const CAUTION_HELP: &str =
+    "Caution: parax computes values as aids. Verify every value clinically; \
 prescribing belongs to a licensed practitioner under local rules.";
 
 /// Plain-text optical case files: check them, compute every derived value, format them.
@@ -74,8 +75,17 @@ enum Command {
 fn main() -> ExitCode {
     let cli = Cli::parse();
     let code = match cli.command {
-        Command::Check { paths, format, quiet } => check::run(&paths, format, quiet),
-        Command::Eval { file, format, explain, quiet } => eval_cmd::run(&file, format, explain, quiet),
+        Command::Check {
+            paths,
+            format,
+            quiet,
+        } => check::run(&paths, format, quiet),
+        Command::Eval {
+            file,
+            format,
+            explain,
+            quiet,
+        } => eval_cmd::run(&file, format, explain, quiet),
         Command::Fmt { paths, check } => fmt_cmd::run(&paths, check),
     };
     ExitCode::from(code)

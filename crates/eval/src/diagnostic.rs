@@ -109,5 +109,6 @@ impl Diagnostic {
 }
 
 /// The general caution shown with every output that carries clinical values.
-pub const GENERAL_CAUTION: &str = "Computed values are aids, not prescriptions: verify clinically; \
+pub const GENERAL_CAUTION: &str =
+    "Computed values are aids, not prescriptions: verify clinically; \
 prescribing belongs to a licensed practitioner under local rules.";

@@ -13,15 +13,36 @@ use parax_syntax::suggest::did_you_mean;
 fn possible_names(block: &str) -> &'static [&'static str] {
     if block.starts_with("eye.") {
         &[
-            "minus-cyl", "plus-cyl", "spherical-equivalent", "vector-j0", "vector-j45", "blur-strength",
-            "meridian-1", "meridian-2", "far-point-1", "far-point-2", "corneal-plane",
-            "corneal-plane-rounded", "at-frame-vertex", "at-frame-vertex-rounded", "near-refraction",
-            "k-flat", "k-steep", "mean-k", "corneal-cylinder", "corneal-astigmatism",
-            "total-corneal-power", "keratometric-excess",
+            "minus-cyl",
+            "plus-cyl",
+            "spherical-equivalent",
+            "vector-j0",
+            "vector-j45",
+            "blur-strength",
+            "meridian-1",
+            "meridian-2",
+            "far-point-1",
+            "far-point-2",
+            "corneal-plane",
+            "corneal-plane-rounded",
+            "at-frame-vertex",
+            "at-frame-vertex-rounded",
+            "near-refraction",
+            "k-flat",
+            "k-steep",
+            "mean-k",
+            "corneal-cylinder",
+            "corneal-astigmatism",
+            "total-corneal-power",
+            "keratometric-excess",
         ]
     } else if block.starts_with("system.") {
         &[
-            "image", "magnification", "image-kind", "equivalent-power", "back-vertex-power",
+            "image",
+            "magnification",
+            "image-kind",
+            "equivalent-power",
+            "back-vertex-power",
             "front-vertex-power",
         ]
     } else {
@@ -36,7 +57,11 @@ pub fn check(block: &str, expects: &[Expect], derived: &[Derived], diags: &mut V
         let Some(d) = derived.iter().find(|d| d.key == key) else {
             let mine: Vec<&str> = derived
                 .iter()
-                .filter(|d| d.key.strip_suffix(&d.name).is_some_and(|b| b.trim_end_matches('.') == block))
+                .filter(|d| {
+                    d.key
+                        .strip_suffix(&d.name)
+                        .is_some_and(|b| b.trim_end_matches('.') == block)
+                })
                 .map(|d| d.name.as_str())
                 .collect();
             let per_lens = e.name.contains('.')
@@ -49,7 +74,10 @@ pub fn check(block: &str, expects: &[Expect], derived: &[Derived], diags: &mut V
                         codes::EXPECT_UNAVAILABLE,
                         Severity::Error,
                         e.name_span,
-                        format!("`{}` could not be computed from this block's inputs", e.name),
+                        format!(
+                            "`{}` could not be computed from this block's inputs",
+                            e.name
+                        ),
                     )
                     .hint("record the inputs it needs (see docs/notation.md), or remove this line"),
                 );
@@ -60,10 +88,19 @@ pub fn check(block: &str, expects: &[Expect], derived: &[Derived], diags: &mut V
                     e.name_span,
                     format!("this block computes no value named `{}`", e.name),
                 );
-                let candidates = mine.iter().copied().chain(possible_names(block).iter().copied());
+                let candidates = mine
+                    .iter()
+                    .copied()
+                    .chain(possible_names(block).iter().copied());
                 diag = match did_you_mean(&e.name, candidates) {
-                    Some(s) => diag.hint(format!("did you mean `{s}`?")).fix(format!("write `{s}`"), e.name_span, s),
-                    None if !mine.is_empty() => diag.hint(format!("this block computes: {}", mine.join(", "))),
+                    Some(s) => diag.hint(format!("did you mean `{s}`?")).fix(
+                        format!("write `{s}`"),
+                        e.name_span,
+                        s,
+                    ),
+                    None if !mine.is_empty() => {
+                        diag.hint(format!("this block computes: {}", mine.join(", ")))
+                    }
                     None => diag,
                 };
                 diags.push(diag);
@@ -76,10 +113,17 @@ pub fn check(block: &str, expects: &[Expect], derived: &[Derived], diags: &mut V
                 codes::EXPECT_MISMATCH,
                 Severity::Error,
                 value_span,
-                format!("recorded {} differs from the computed {}: {why}", e.name, d.text),
+                format!(
+                    "recorded {} differs from the computed {}: {why}",
+                    e.name, d.text
+                ),
             )
             .hint("if an input changed, update the recorded result; otherwise check the inputs")
-            .fix(format!("record the computed value `{}`", d.text), value_span, d.text.clone());
+            .fix(
+                format!("record the computed value `{}`", d.text),
+                value_span,
+                d.text.clone(),
+            );
             if let Some(c) = d.caution {
                 diag = diag.caution(c);
             }
@@ -92,7 +136,12 @@ fn numbers(e: &Expect) -> Vec<(f64, f64, bool)> {
     e.tokens
         .iter()
         .filter_map(|t| match t {
-            T::Number { value, half_step, unit, .. } => Some((*value, *half_step, unit.is_some())),
+            T::Number {
+                value,
+                half_step,
+                unit,
+                ..
+            } => Some((*value, *half_step, unit.is_some())),
             _ => None,
         })
         .collect()
@@ -113,18 +162,28 @@ fn within(computed: f64, recorded: f64, tol: f64) -> Result<(), String> {
     if diff.abs() <= tol + 1e-12 {
         Ok(())
     } else {
-        Err(format!("difference {:.4} exceeds the tolerance ±{:.4}", diff.abs(), tol))
+        Err(format!(
+            "difference {:.4} exceeds the tolerance ±{:.4}",
+            diff.abs(),
+            tol
+        ))
     }
 }
 
 fn compare(d: &Derived, e: &Expect) -> Result<(), String> {
     let nums = numbers(e);
-    let tol = |i: usize| e.tolerance.unwrap_or_else(|| nums.get(i).map_or(0.0, |n| n.1));
+    let tol = |i: usize| {
+        e.tolerance
+            .unwrap_or_else(|| nums.get(i).map_or(0.0, |n| n.1))
+    };
     let want = |n: usize| -> Result<(), String> {
         if nums.len() == n {
             Ok(())
         } else {
-            Err(format!("expected {n} number(s) in the recorded value, found {}", nums.len()))
+            Err(format!(
+                "expected {n} number(s) in the recorded value, found {}",
+                nums.len()
+            ))
         }
     };
     match &d.value {
@@ -136,15 +195,27 @@ fn compare(d: &Derived, e: &Expect) -> Result<(), String> {
             want(1)?;
             within(*value, nums[0].0, tol(0))
         }
-        V::SphCyl { sphere, cylinder, axis } => {
+        V::SphCyl {
+            sphere,
+            cylinder,
+            axis,
+        } => {
             let (s, c, a) = match nums.len() {
                 1 => (nums[0].0, 0.0, *axis),
                 3 => (nums[0].0, nums[1].0, nums[2].0),
-                n => return Err(format!("a sphero-cylinder is SPHERE [/ CYLINDER x AXIS], found {n} numbers")),
+                n => {
+                    return Err(format!(
+                        "a sphero-cylinder is SPHERE [/ CYLINDER x AXIS], found {n} numbers"
+                    ))
+                }
             };
             // Either cylinder form may be recorded.
             let (cs, cc, ca) = if c * cylinder < 0.0 {
-                (sphere + cylinder, -cylinder, parax_optics::refraction::normalize_axis(axis + 90.0))
+                (
+                    sphere + cylinder,
+                    -cylinder,
+                    parax_optics::refraction::normalize_axis(axis + 90.0),
+                )
             } else {
                 (*sphere, *cylinder, *axis)
             };
@@ -153,7 +224,9 @@ fn compare(d: &Derived, e: &Expect) -> Result<(), String> {
                 within(cc, c, tol(1)).map_err(|w| format!("cylinder: {w}"))?;
                 if cc.abs() > 0.005 {
                     let da = parax_optics::refraction::axis_difference(ca, a);
-                    let atol = e.tolerance.map_or(0.5_f64.max(nums[2].1), |_| 0.5_f64.max(nums[2].1));
+                    let atol = e
+                        .tolerance
+                        .map_or(0.5_f64.max(nums[2].1), |_| 0.5_f64.max(nums[2].1));
                     if da > atol + 1e-9 {
                         return Err(format!("axis differs by {da:.1}°"));
                     }
@@ -187,10 +260,16 @@ fn compare(d: &Derived, e: &Expect) -> Result<(), String> {
                 return Err("a distance needs its unit (mm, cm or m)".into());
             }
             let w = words(e);
-            let sign = if w.iter().any(|w| w == "before") { -1.0 } else { 1.0 };
+            let sign = if w.iter().any(|w| w == "before") {
+                -1.0
+            } else {
+                1.0
+            };
             if let Some(label) = w.iter().find(|w| *w != "after" && *w != "before") {
                 if !label.eq_ignore_ascii_case(from) {
-                    return Err(format!("the computed position is measured from {from}, not {label}"));
+                    return Err(format!(
+                        "the computed position is measured from {from}, not {label}"
+                    ));
                 }
             }
             within(*metres, sign * nums[0].0, tol(0))
@@ -203,7 +282,13 @@ fn compare(d: &Derived, e: &Expect) -> Result<(), String> {
             }
         }
         V::Text { text } => {
-            let norm = |s: &str| s.to_lowercase().replace(',', " ").split_whitespace().collect::<Vec<_>>().join(" ");
+            let norm = |s: &str| {
+                s.to_lowercase()
+                    .replace(',', " ")
+                    .split_whitespace()
+                    .collect::<Vec<_>>()
+                    .join(" ")
+            };
             if norm(text) == words(e).join(" ") {
                 Ok(())
             } else {

@@ -28,7 +28,7 @@ use parax_syntax::Parsed;
 pub struct Evaluation {
     /// The facts read from the file.
     pub case: Case,
-    /// Every derived value, in block order.
+    /// Every derived value: eyes first, then systems, each block in file order.
     pub derived: Vec<Derived>,
     /// Every diagnostic (syntax, notation, units, clinical, expect), by position.
     pub diagnostics: Vec<Diagnostic>,
@@ -37,7 +37,9 @@ pub struct Evaluation {
 impl Evaluation {
     /// True when any diagnostic is an error (the file fails `parax check`).
     pub fn has_errors(&self) -> bool {
-        self.diagnostics.iter().any(|d| d.severity == Severity::Error)
+        self.diagnostics
+            .iter()
+            .any(|d| d.severity == Severity::Error)
     }
 }
 
@@ -72,7 +74,12 @@ pub fn evaluate_case(case: &Case) -> (Vec<Derived>, Vec<Diagnostic>) {
         expect::check(&compute::eye_block_id(e), &e.expects, &derived, &mut diags);
     }
     for s in &case.systems {
-        expect::check(&compute::system_block_id(s), &s.expects, &derived, &mut diags);
+        expect::check(
+            &compute::system_block_id(s),
+            &s.expects,
+            &derived,
+            &mut diags,
+        );
     }
     for f in &case.frames {
         let id = match &f.name {

@@ -29,7 +29,9 @@ fn statement_span(p: &Parsed, line: usize) -> Span {
 }
 
 fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagnostic>) {
-    let header = p.lines[block.header].statement().expect("a block starts with a header");
+    let header = p.lines[block.header]
+        .statement()
+        .expect("a block starts with a header");
     let header_span = statement_span(p, block.header);
     let form = schema::header_form(block.kind);
     let first_header_diag = diags.len();
@@ -67,7 +69,11 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
             }
         }
         BlockKind::Frame => {
-            let name = if r.at_end() { None } else { r.text_value("the frame name", form) };
+            let name = if r.at_end() {
+                None
+            } else {
+                r.text_value("the frame name", form)
+            };
             r.finish(form);
             Target::Frame(Frame {
                 name,
@@ -192,7 +198,9 @@ fn unknown_keyword(kind: BlockKind, kw: &str, span: Span) -> Diagnostic {
         format!("`{kw}` is not a keyword of `{}` blocks", kind.keyword()),
     );
     if let Some(s) = parax_syntax::suggest::did_you_mean(kw, names) {
-        d = d.hint(format!("did you mean `{s}`?")).fix(format!("write `{s}`"), span, s);
+        d = d
+            .hint(format!("did you mean `{s}`?"))
+            .fix(format!("write `{s}`"), span, s);
     } else if let Some(other) = BlockKind::ALL
         .into_iter()
         .find(|k| *k != kind && schema::keyword(*k, kw).is_some())
@@ -200,7 +208,11 @@ fn unknown_keyword(kind: BlockKind, kw: &str, span: Span) -> Diagnostic {
         d = d.hint(format!("`{kw}` belongs in a `{}` block", other.keyword()));
     } else {
         let all: Vec<&str> = schema::keywords(kind).iter().map(|k| k.name).collect();
-        d = d.hint(format!("`{}` blocks take: {}", kind.keyword(), all.join(", ")));
+        d = d.hint(format!(
+            "`{}` blocks take: {}",
+            kind.keyword(),
+            all.join(", ")
+        ));
     }
     d
 }
@@ -263,17 +275,32 @@ fn lower_statement(
             "refraction" => {
                 let rx = r.rx(form);
                 let written = r.symbol_if(Symbol::At);
-                let vertex = if written { r.quantity(&u::VERTEX, form) } else { None };
+                let vertex = if written {
+                    r.quantity(&u::VERTEX, form)
+                } else {
+                    None
+                };
                 let vertex_unreadable = written && vertex.is_none();
                 if let Some(rx) = rx {
-                    eye.refraction = at(Some(Refraction { rx, vertex, vertex_unreadable }), span);
+                    eye.refraction = at(
+                        Some(Refraction {
+                            rx,
+                            vertex,
+                            vertex_unreadable,
+                        }),
+                        span,
+                    );
                 }
             }
             "add" => eye.add = at(r.quantity(&u::ADD, form), span),
             "keratometry" => eye.keratometry = at(read_keratometry(r, form), span),
             "keratometric-index" => eye.keratometric_index = at(r.quantity(&u::INDEX, form), span),
-            "posterior-radius" => eye.posterior_radius = at(r.quantity(&u::POSTERIOR_RADIUS, form), span),
-            "corneal-thickness" => eye.corneal_thickness = at(r.quantity(&u::CORNEAL_THICKNESS, form), span),
+            "posterior-radius" => {
+                eye.posterior_radius = at(r.quantity(&u::POSTERIOR_RADIUS, form), span)
+            }
+            "corneal-thickness" => {
+                eye.corneal_thickness = at(r.quantity(&u::CORNEAL_THICKNESS, form), span)
+            }
             "axial-length" => eye.axial_length = at(r.quantity(&u::AXIAL_LENGTH, form), span),
             "pd" => eye.pd = at(r.quantity(&u::PD, form), span),
             "age" => eye.age = at(r.quantity(&u::AGE, form), span),
@@ -302,30 +329,38 @@ fn lower_statement(
             };
             *slot = v;
         }
-        Target::System(s) => match kw {
-            "object" => {
-                if r.word_if("at") {
-                    if r.word_if("infinity") {
-                        s.object = At { value: ObjectAt::Infinity, span };
-                    } else {
-                        r.missing::<()>("`infinity`", form);
-                    }
-                } else if let Some(d) = r.quantity(&u::OBJECT_DISTANCE, form) {
-                    if r.word_if("before") {
-                        if let Some((label, label_span)) = r.word("a lens label", form) {
-                            let value = ObjectAt::Before { distance: d, label: label.to_owned(), label_span };
-                            s.object = At { value, span };
+        Target::System(s) => {
+            match kw {
+                "object" => {
+                    if r.word_if("at") {
+                        if r.word_if("infinity") {
+                            s.object = At {
+                                value: ObjectAt::Infinity,
+                                span,
+                            };
+                        } else {
+                            r.missing::<()>("`infinity`", form);
                         }
-                    } else {
-                        r.missing::<()>("`before LABEL`", form);
+                    } else if let Some(d) = r.quantity(&u::OBJECT_DISTANCE, form) {
+                        if r.word_if("before") {
+                            if let Some((label, label_span)) = r.word("a lens label", form) {
+                                let value = ObjectAt::Before {
+                                    distance: d,
+                                    label: label.to_owned(),
+                                    label_span,
+                                };
+                                s.object = At { value, span };
+                            }
+                        } else {
+                            r.missing::<()>("`before LABEL`", form);
+                        }
                     }
                 }
-            }
-            "lens" => {
-                let label = r.word("a lens label", form);
-                let power = r.quantity(&u::LENS_POWER, form);
-                if let (Some((label, lspan)), Some(power)) = (label, power) {
-                    if s.elements.iter().any(|e| matches!(&e.value, SystemElement::Lens { label: l, .. } if l == label)) {
+                "lens" => {
+                    let label = r.word("a lens label", form);
+                    let power = r.quantity(&u::LENS_POWER, form);
+                    if let (Some((label, lspan)), Some(power)) = (label, power) {
+                        if s.elements.iter().any(|e| matches!(&e.value, SystemElement::Lens { label: l, .. } if l == label)) {
                         r.diags.push(Diagnostic::new(
                             codes::SYSTEM_LAYOUT,
                             Severity::Error,
@@ -333,20 +368,34 @@ fn lower_statement(
                             format!("the label `{label}` is already used in this system"),
                         ));
                     }
-                    s.elements.push(At { value: SystemElement::Lens { label: label.to_owned(), power }, span });
+                        s.elements.push(At {
+                            value: SystemElement::Lens {
+                                label: label.to_owned(),
+                                power,
+                            },
+                            span,
+                        });
+                    }
+                }
+                "gap" => {
+                    let length = r.quantity(&u::GAP, form);
+                    let index = if r.word_if("index") {
+                        r.quantity(&u::INDEX, form)
+                    } else {
+                        Some(1.0)
+                    };
+                    if let (Some(length), Some(index)) = (length, index) {
+                        s.elements.push(At {
+                            value: SystemElement::Gap { length, index },
+                            span,
+                        });
+                    }
+                }
+                _ => {
+                    r.rest();
                 }
             }
-            "gap" => {
-                let length = r.quantity(&u::GAP, form);
-                let index = if r.word_if("index") { r.quantity(&u::INDEX, form) } else { Some(1.0) };
-                if let (Some(length), Some(index)) = (length, index) {
-                    s.elements.push(At { value: SystemElement::Gap { length, index }, span });
-                }
-            }
-            _ => {
-                r.rest();
-            }
-        },
+        }
         Target::Later => {
             // Keep the values' units honest even where nothing is computed yet.
             check_units_only(r, statement);
@@ -383,7 +432,11 @@ fn read_keratometry(r: &mut Reader<'_>, form: &str) -> Option<[KMeridian; 2]> {
             return match r.peek() {
                 Some(v) => {
                     let t = r.text(v.span);
-                    r.fail(v.span, format!("expected `,` and the second meridian, found `{t}`"), form)
+                    r.fail(
+                        v.span,
+                        format!("expected `,` and the second meridian, found `{t}`"),
+                        form,
+                    )
                 }
                 None => r.missing("the second meridian (`, RADIUS mm x MERIDIAN`)", form),
             };
@@ -393,7 +446,10 @@ fn read_keratometry(r: &mut Reader<'_>, form: &str) -> Option<[KMeridian; 2]> {
             Some(Value { kind: ValueKind::Number { unit: Some(us), .. }, .. }) if matches!(r.text(*us), "D")
         );
         let (radius, as_power) = if is_power {
-            (keratometric_radius(r.quantity(&u::K_POWER, form)?, index), true)
+            (
+                keratometric_radius(r.quantity(&u::K_POWER, form)?, index),
+                true,
+            )
         } else {
             (r.quantity(&u::CORNEAL_RADIUS, form)?, false)
         };
@@ -401,7 +457,11 @@ fn read_keratometry(r: &mut Reader<'_>, form: &str) -> Option<[KMeridian; 2]> {
             return r.missing("`x` and the meridian", form);
         }
         let meridian = r.axis(&u::MERIDIAN, form)?;
-        out.push(KMeridian { radius, meridian, as_power });
+        out.push(KMeridian {
+            radius,
+            meridian,
+            as_power,
+        });
     }
     Some([out[0], out[1]])
 }
@@ -412,20 +472,39 @@ fn read_expect(r: &mut Reader<'_>, form: &str, span: Span) -> Option<Expect> {
     let mut tolerance = None;
     let mut value_span: Option<Span> = None;
     while let Some(v) = r.next_value() {
-        if !matches!(v.kind, ValueKind::Symbol { symbol: Symbol::PlusMinus }) && tolerance.is_none() {
+        if !matches!(
+            v.kind,
+            ValueKind::Symbol {
+                symbol: Symbol::PlusMinus
+            }
+        ) && tolerance.is_none()
+        {
             value_span = Some(value_span.map_or(v.span, |s| s.cover(v.span)));
         }
         match &v.kind {
-            ValueKind::Number { number, value, unit, decimals, .. } => {
+            ValueKind::Number {
+                number,
+                value,
+                unit,
+                decimals,
+                ..
+            } => {
                 let unit = unit.and_then(|us| u::unit_of(r.text(us)));
                 let half = 0.5 * 10f64.powi(-(*decimals as i32));
                 let (value, half_step) = match unit {
                     Some(un) => (un.to_base(*value), un.to_base(half)),
                     None => (*value, half),
                 };
-                tokens.push(ExpectToken::Number { value, unit, half_step, span: *number });
+                tokens.push(ExpectToken::Number {
+                    value,
+                    unit,
+                    half_step,
+                    span: *number,
+                });
             }
-            ValueKind::Symbol { symbol: Symbol::PlusMinus } => {
+            ValueKind::Symbol {
+                symbol: Symbol::PlusMinus,
+            } => {
                 let tv = r.next_value();
                 match tv.map(|t| &t.kind) {
                     Some(ValueKind::Number { value, unit, .. }) => {
@@ -439,12 +518,23 @@ fn read_expect(r: &mut Reader<'_>, form: &str, span: Span) -> Option<Expect> {
             }
             ValueKind::Word | ValueKind::Text { .. } => {
                 let t = r.text(v.span);
-                tokens.push(ExpectToken::Word { word: t.trim_matches('"').to_owned() })
+                tokens.push(ExpectToken::Word {
+                    word: t.trim_matches('"').to_owned(),
+                })
             }
             ValueKind::AxisSign | ValueKind::Symbol { .. } | ValueKind::Date { .. } => {
-                tokens.push(ExpectToken::Mark { mark: r.text(v.span).to_owned() })
+                tokens.push(ExpectToken::Mark {
+                    mark: r.text(v.span).to_owned(),
+                })
             }
         }
     }
-    Some(Expect { name: name.to_owned(), name_span, tokens, tolerance, value_span, span })
+    Some(Expect {
+        name: name.to_owned(),
+        name_span,
+        tokens,
+        tolerance,
+        value_span,
+        span,
+    })
 }

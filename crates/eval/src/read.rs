@@ -71,10 +71,7 @@ impl<'a> Reader<'a> {
 
     /// Report that `what` is missing at the end of the statement.
     pub fn missing<T>(&mut self, what: &str, form: &str) -> Option<T> {
-        let end = self
-            .values
-            .last()
-            .map_or(self.keyword.end, |v| v.span.end);
+        let end = self.values.last().map_or(self.keyword.end, |v| v.span.end);
         self.fail(Span::new(end, end), format!("{what} is missing here"), form)
     }
 
@@ -98,7 +95,13 @@ impl<'a> Reader<'a> {
 
     /// Consume the next value if it is the axis sign `x`.
     pub fn axis_sign_if(&mut self) -> bool {
-        let hit = matches!(self.peek(), Some(Value { kind: ValueKind::AxisSign, .. }));
+        let hit = matches!(
+            self.peek(),
+            Some(Value {
+                kind: ValueKind::AxisSign,
+                ..
+            })
+        );
         self.pos += hit as usize;
         hit
     }
@@ -113,7 +116,12 @@ impl<'a> Reader<'a> {
     /// A bare word.
     pub fn word(&mut self, what: &str, form: &str) -> Option<(&'a str, Span)> {
         match self.next_value() {
-            Some(v @ Value { kind: ValueKind::Word, .. }) => Some((self.text(v.span), v.span)),
+            Some(
+                v @ Value {
+                    kind: ValueKind::Word,
+                    ..
+                },
+            ) => Some((self.text(v.span), v.span)),
             Some(v) => {
                 let t = self.text(v.span);
                 self.fail(v.span, format!("expected {what}, found `{t}`"), form)
@@ -123,7 +131,12 @@ impl<'a> Reader<'a> {
     }
 
     /// A word from a fixed list, with a "did you mean" hint otherwise.
-    pub fn word_of(&mut self, options: &[&'static str], what: &str, form: &str) -> Option<&'static str> {
+    pub fn word_of(
+        &mut self,
+        options: &[&'static str],
+        what: &str,
+        form: &str,
+    ) -> Option<&'static str> {
         let (w, span) = self.word(what, form)?;
         if let Some(o) = options.iter().find(|o| **o == w) {
             return Some(o);
@@ -132,10 +145,15 @@ impl<'a> Reader<'a> {
             codes::BAD_VALUES,
             Severity::Error,
             span,
-            format!("`{w}` is not {what}; one of {} is expected", options.join(", ")),
+            format!(
+                "`{w}` is not {what}; one of {} is expected",
+                options.join(", ")
+            ),
         );
         if let Some(s) = parax_syntax::suggest::did_you_mean(w, options.iter().copied()) {
-            d = d.hint(format!("did you mean `{s}`?")).fix(format!("write `{s}`"), span, s);
+            d = d
+                .hint(format!("did you mean `{s}`?"))
+                .fix(format!("write `{s}`"), span, s);
         }
         self.failed = true;
         self.diags.push(d);
@@ -145,10 +163,17 @@ impl<'a> Reader<'a> {
     /// A quoted text, unescaped.
     pub fn text_value(&mut self, what: &str, form: &str) -> Option<String> {
         match self.next_value() {
-            Some(Value { kind: ValueKind::Text { text }, .. }) => Some(unescape(self.text(*text))),
+            Some(Value {
+                kind: ValueKind::Text { text },
+                ..
+            }) => Some(unescape(self.text(*text))),
             Some(v) => {
                 let t = self.text(v.span);
-                self.fail(v.span, format!("expected {what} in quotes, found `{t}`"), form)
+                self.fail(
+                    v.span,
+                    format!("expected {what} in quotes, found `{t}`"),
+                    form,
+                )
             }
             None => self.missing(what, form),
         }
@@ -159,7 +184,10 @@ impl<'a> Reader<'a> {
         let out = match (self.values.get(self.pos), self.values.last()) {
             (Some(a), Some(b)) => {
                 let t = self.text(a.span.cover(b.span));
-                t.strip_prefix('"').and_then(|t| t.strip_suffix('"')).unwrap_or(t).to_owned()
+                t.strip_prefix('"')
+                    .and_then(|t| t.strip_suffix('"'))
+                    .unwrap_or(t)
+                    .to_owned()
             }
             _ => String::new(),
         };
@@ -170,9 +198,27 @@ impl<'a> Reader<'a> {
     /// A date `YYYY-MM-DD`, checked to be a calendar date.
     pub fn date(&mut self, form: &str) -> Option<String> {
         match self.next_value() {
-            Some(v @ Value { kind: ValueKind::Date { year, month, day }, .. }) => {
+            Some(
+                v @ Value {
+                    kind: ValueKind::Date { year, month, day },
+                    ..
+                },
+            ) => {
                 let leap = (year % 4 == 0 && year % 100 != 0) || year % 400 == 0;
-                let days = [31, if leap { 29 } else { 28 }, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
+                let days = [
+                    31,
+                    if leap { 29 } else { 28 },
+                    31,
+                    30,
+                    31,
+                    30,
+                    31,
+                    31,
+                    30,
+                    31,
+                    30,
+                    31,
+                ];
                 if !(1..=12).contains(month) || *day == 0 || *day > days[*month as usize - 1] {
                     let t = self.text(v.span);
                     return self.fail(v.span, format!("`{t}` is not a calendar date"), form);
@@ -181,7 +227,11 @@ impl<'a> Reader<'a> {
             }
             Some(v) => {
                 let t = self.text(v.span);
-                self.fail(v.span, format!("expected a date YYYY-MM-DD, found `{t}`"), form)
+                self.fail(
+                    v.span,
+                    format!("expected a date YYYY-MM-DD, found `{t}`"),
+                    form,
+                )
             }
             None => self.missing("a date", form),
         }
@@ -193,9 +243,19 @@ impl<'a> Reader<'a> {
             Some(v) => v,
             None => return self.missing(&format!("the {}", spec.what), form),
         };
-        let ValueKind::Number { number, value, unit, .. } = &v.kind else {
+        let ValueKind::Number {
+            number,
+            value,
+            unit,
+            ..
+        } = &v.kind
+        else {
             let t = self.text(v.span);
-            return self.fail(v.span, format!("expected the {}, found `{t}`", spec.what), form);
+            return self.fail(
+                v.span,
+                format!("expected the {}, found `{t}`", spec.what),
+                form,
+            );
         };
         let number_text = self.text(*number);
         let unit_used = match unit {
@@ -211,14 +271,20 @@ impl<'a> Reader<'a> {
                             *u_span,
                             format!("a {} has no unit", spec.what),
                         )
-                        .fix("remove the unit", Span::new(number.end, u_span.end), ""),
+                        .fix(
+                            "remove the unit",
+                            Span::new(number.end, u_span.end),
+                            "",
+                        ),
                     );
                     return None;
                 }
                 match unit {
                     Some(u) if u.dimension() == spec.dimension => u,
                     _ => {
-                        let measures = unit.map_or("nothing the notation knows", |u| dimension_name(u.dimension()));
+                        let measures = unit.map_or("nothing the notation knows", |u| {
+                            dimension_name(u.dimension())
+                        });
                         let usual = spec.usual.symbol();
                         self.failed = true;
                         self.diags.push(
@@ -233,7 +299,11 @@ impl<'a> Reader<'a> {
                                 ),
                             )
                             .hint(format!("write the {} in {usual}", spec.what))
-                            .fix(format!("use `{usual}`"), *u_span, usual),
+                            .fix(
+                                format!("use `{usual}`"),
+                                *u_span,
+                                usual,
+                            ),
                         );
                         return None;
                     }
@@ -244,7 +314,11 @@ impl<'a> Reader<'a> {
                 Some(u) => u,
                 None => {
                     let usual = spec.usual.symbol();
-                    let sep = if matches!(usual, "°" | "Δ") { "" } else { " " };
+                    let sep = if matches!(usual, "°" | "Δ") {
+                        ""
+                    } else {
+                        " "
+                    };
                     self.failed = true;
                     self.diags.push(
                         Diagnostic::new(
@@ -263,20 +337,35 @@ impl<'a> Reader<'a> {
                 }
             },
         };
-        let base = if spec.dimension == Dimension::Ratio { *value } else { unit_used.to_base(*value) };
+        let base = if spec.dimension == Dimension::Ratio {
+            *value
+        } else {
+            unit_used.to_base(*value)
+        };
         if !(spec.min..=spec.max).contains(&base) {
             self.implausible(spec, v.span, *value, unit_used, unit.is_some());
         }
         Some(base)
     }
 
-    fn implausible(&mut self, spec: &QuantitySpec, span: Span, value: f64, unit: Unit, unit_written: bool) {
+    fn implausible(
+        &mut self,
+        spec: &QuantitySpec,
+        span: Span,
+        value: f64,
+        unit: Unit,
+        unit_written: bool,
+    ) {
         let show = |x: f64| {
             if spec.dimension == Dimension::Ratio {
                 format!("{x}")
             } else {
                 let u = spec.usual;
-                let sep = if matches!(u.symbol(), "°" | "Δ") { "" } else { " " };
+                let sep = if matches!(u.symbol(), "°" | "Δ") {
+                    ""
+                } else {
+                    " "
+                };
                 format!("{}{sep}{}", trim_float(u.from_base(x)), u.symbol())
             }
         };
@@ -299,7 +388,11 @@ impl<'a> Reader<'a> {
                     let ValueKindNumber { unit_span, .. } = self.number_parts(span);
                     if let Some(us) = unit_span {
                         d = d
-                            .hint(format!("did you mean {} {}?", trim_float(value), u.symbol()))
+                            .hint(format!(
+                                "did you mean {} {}?",
+                                trim_float(value),
+                                u.symbol()
+                            ))
                             .fix(format!("use `{}`", u.symbol()), us, u.symbol());
                     }
                     break;
@@ -309,7 +402,11 @@ impl<'a> Reader<'a> {
             // 78 mm for 7.8 mm: a slipped decimal point.
             for k in [10.0, 0.1] {
                 if (spec.min..=spec.max).contains(&unit.to_base(value / k)) {
-                    d = d.hint(format!("did you mean {} {}?", trim_float(value / k), unit.symbol()));
+                    d = d.hint(format!(
+                        "did you mean {} {}?",
+                        trim_float(value / k),
+                        unit.symbol()
+                    ));
                     break;
                 }
             }
@@ -317,7 +414,11 @@ impl<'a> Reader<'a> {
         if d.hint.is_none() && spec.dimension == Dimension::Length {
             for k in [10.0, 0.1] {
                 if (spec.min..=spec.max).contains(&unit.to_base(value / k)) {
-                    d = d.hint(format!("did you mean {} {}?", trim_float(value / k), unit.symbol()));
+                    d = d.hint(format!(
+                        "did you mean {} {}?",
+                        trim_float(value / k),
+                        unit.symbol()
+                    ));
                     break;
                 }
             }
@@ -341,7 +442,10 @@ impl<'a> Reader<'a> {
         if !(0.0..=180.0).contains(&a) {
             self.failed = true;
             let hint = if a > 180.0 && a <= 360.0 {
-                format!("axes run from 1 to 180; {} is the same meridian", trim_float(a - 180.0))
+                format!(
+                    "axes run from 1 to 180; {} is the same meridian",
+                    trim_float(a - 180.0)
+                )
             } else {
                 "axes run from 1 to 180 degrees (ISO 8429)".to_owned()
             };
@@ -364,9 +468,14 @@ impl<'a> Reader<'a> {
         }
         if a == 0.0 {
             self.diags.push(
-                Diagnostic::new(codes::BAD_AXIS, Severity::Info, span, format!("an {} of 0 is written 180", spec.what))
-                    .hint("0 and 180 are the same meridian; the trade writes 180 [CP]")
-                    .fix("write 180", self.number_span(span), "180"),
+                Diagnostic::new(
+                    codes::BAD_AXIS,
+                    Severity::Info,
+                    span,
+                    format!("an {} of 0 is written 180", spec.what),
+                )
+                .hint("0 and 180 are the same meridian; the trade writes 180 [CP]")
+                .fix("write 180", self.number_span(span), "180"),
             );
             return Some(180.0);
         }
@@ -381,7 +490,11 @@ impl<'a> Reader<'a> {
     }
 
     fn quantity_quiet_range(&mut self, spec: &QuantitySpec, form: &str) -> Option<f64> {
-        let wide = QuantitySpec { min: f64::NEG_INFINITY, max: f64::INFINITY, ..*spec };
+        let wide = QuantitySpec {
+            min: f64::NEG_INFINITY,
+            max: f64::INFINITY,
+            ..*spec
+        };
         self.quantity(&wide, form)
     }
 
@@ -394,25 +507,43 @@ impl<'a> Reader<'a> {
             self.quantity(&SPHERE, form)?
         };
         let slash = self.symbol_if(Symbol::Slash);
-        let has_cyl = matches!(self.peek(), Some(Value { kind: ValueKind::Number { .. }, .. }));
+        let has_cyl = matches!(
+            self.peek(),
+            Some(Value {
+                kind: ValueKind::Number { .. },
+                ..
+            })
+        );
         if !has_cyl {
             if slash {
                 return self.missing("the cylinder", form);
             }
-            return Some(Rx { sphere, cylinder: 0.0, axis: 180.0 });
+            return Some(Rx {
+                sphere,
+                cylinder: 0.0,
+                axis: 180.0,
+            });
         }
         let cylinder = self.quantity(&CYLINDER, form)?;
         if !self.axis_sign_if() {
             return match self.peek() {
                 Some(v) => {
                     let t = self.text(v.span);
-                    self.fail(v.span, format!("expected `x` and the axis, found `{t}`"), form)
+                    self.fail(
+                        v.span,
+                        format!("expected `x` and the axis, found `{t}`"),
+                        form,
+                    )
                 }
                 None => self.missing("the axis (`x AXIS`)", form),
             };
         }
         let axis = self.axis(&AXIS, form)?;
-        Some(Rx { sphere, cylinder, axis })
+        Some(Rx {
+            sphere,
+            cylinder,
+            axis,
+        })
     }
 }
 
@@ -440,5 +571,9 @@ pub fn unescape(s: &str) -> String {
 pub fn trim_float(x: f64) -> String {
     let s = format!("{:.6}", x);
     let s = s.trim_end_matches('0').trim_end_matches('.');
-    if s == "-0" { "0".into() } else { s.to_owned() }
+    if s == "-0" {
+        "0".into()
+    } else {
+        s.to_owned()
+    }
 }

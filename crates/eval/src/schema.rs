@@ -57,50 +57,110 @@ const CASE: &[KeywordSpec] = &[
 ];
 
 const EYE: &[KeywordSpec] = &[
-    kw("refraction", "SPHERE [/ CYLINDER x AXIS] [@ VERTEX mm]", "distance refraction and the vertex distance it was measured at"),
+    kw(
+        "refraction",
+        "SPHERE [/ CYLINDER x AXIS] [@ VERTEX mm]",
+        "distance refraction and the vertex distance it was measured at",
+    ),
     kw("add", "POWER", "reading addition"),
-    kw("keratometry", "RADIUS mm x MERIDIAN, RADIUS mm x MERIDIAN (or K D x MERIDIAN, …)", "anterior corneal curvature in both principal meridians"),
-    kw("keratometric-index", "N", "index used to turn radius into K (default 1.3375)"),
-    kw("posterior-radius", "RADIUS mm", "posterior corneal radius, for total corneal power"),
-    kw("corneal-thickness", "LENGTH mm", "central corneal thickness, for total corneal power"),
+    kw(
+        "keratometry",
+        "RADIUS mm x MERIDIAN, RADIUS mm x MERIDIAN (or K D x MERIDIAN, …)",
+        "anterior corneal curvature in both principal meridians",
+    ),
+    kw(
+        "keratometric-index",
+        "N",
+        "index used to turn radius into K (default 1.3375)",
+    ),
+    kw(
+        "posterior-radius",
+        "RADIUS mm",
+        "posterior corneal radius, for total corneal power",
+    ),
+    kw(
+        "corneal-thickness",
+        "LENGTH mm",
+        "central corneal thickness, for total corneal power",
+    ),
     later(kw("axial-length", "LENGTH mm", "axial length of the eye")),
     later(kw("pd", "LENGTH mm", "monocular pupillary distance")),
     later(kw("age", "N y", "age, when it differs per eye or visit")),
-    kw("refractive-surgery", "\"TEXT\"", "history of corneal refractive surgery (keratometry cautions follow)"),
+    kw(
+        "refractive-surgery",
+        "\"TEXT\"",
+        "history of corneal refractive surgery (keratometry cautions follow)",
+    ),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,
 ];
 
 const FRAME: &[KeywordSpec] = &[
-    kw("vertex", "LENGTH mm", "vertex distance as fitted in this frame"),
+    kw(
+        "vertex",
+        "LENGTH mm",
+        "vertex distance as fitted in this frame",
+    ),
     later(kw("pantoscopic-tilt", "ANGLE deg", "pantoscopic tilt")),
     later(kw("face-form", "ANGLE deg", "face form (wrap) angle")),
-    later(kw("fitting-height", "LENGTH mm", "height of the pupil centre above the lowest point of the rim")),
-    later(kw("reading-drop", "LENGTH mm", "how far below the distance centres the eyes read")),
-    later(kw("near-inset", "LENGTH mm", "inward shift of each reading point")),
-    later(kw("centre-distance", "LENGTH mm", "distance between the optical centres")),
+    later(kw(
+        "fitting-height",
+        "LENGTH mm",
+        "height of the pupil centre above the lowest point of the rim",
+    )),
+    later(kw(
+        "reading-drop",
+        "LENGTH mm",
+        "how far below the distance centres the eyes read",
+    )),
+    later(kw(
+        "near-inset",
+        "LENGTH mm",
+        "inward shift of each reading point",
+    )),
+    later(kw(
+        "centre-distance",
+        "LENGTH mm",
+        "distance between the optical centres",
+    )),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,
 ];
 
 const SPECTACLE_LENS: &[KeywordSpec] = &[
-    later(kw("power", "SPHERE [/ CYLINDER x AXIS]", "the power ordered")),
+    later(kw(
+        "power",
+        "SPHERE [/ CYLINDER x AXIS]",
+        "the power ordered",
+    )),
     later(kw("add", "POWER", "the addition ordered")),
-    later(kw("prism", "AMOUNT Δ BASE", "prescribed prism and base direction (BU, BD, BI, BO)")),
+    later(kw(
+        "prism",
+        "AMOUNT Δ BASE",
+        "prescribed prism and base direction (BU, BD, BI, BO)",
+    )),
     later(kw("index", "N", "refractive index of the material")),
     later(kw("material", "\"TEXT\"", "material name")),
     later(kw("base-curve", "POWER", "front surface power")),
     later(kw("centre-thickness", "LENGTH mm", "centre thickness")),
     later(kw("edge-thickness", "LENGTH mm", "edge thickness")),
     later(kw("blank-diameter", "LENGTH mm", "uncut diameter")),
-    later(kw("measured", "SPHERE [/ CYLINDER x AXIS]", "focimeter reading of the received lens")),
+    later(kw(
+        "measured",
+        "SPHERE [/ CYLINDER x AXIS]",
+        "focimeter reading of the received lens",
+    )),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,
 ];
 
 const CONTACT_LENS: &[KeywordSpec] = &[
     later(kw("base-curve", "RADIUS mm", "back optic zone radius")),
-    later(kw("power", "SPHERE [/ CYLINDER x AXIS]", "back vertex power")),
+    later(kw(
+        "power",
+        "SPHERE [/ CYLINDER x AXIS]",
+        "back vertex power",
+    )),
     later(kw("kind", "rigid | soft", "lens type")),
     later(kw("diameter", "LENGTH mm", "total diameter")),
     many(kw("note", "\"TEXT\"", "a free note")),
@@ -108,18 +168,38 @@ const CONTACT_LENS: &[KeywordSpec] = &[
 ];
 
 const SYSTEM: &[KeywordSpec] = &[
-    kw("object", "DISTANCE before LABEL | at infinity", "where the object is (default: at infinity)"),
+    kw(
+        "object",
+        "DISTANCE before LABEL | at infinity",
+        "where the object is (default: at infinity)",
+    ),
     many(kw("lens", "LABEL POWER", "a thin lens")),
-    many(kw("gap", "LENGTH [index N]", "distance to the next element, in air unless an index is given")),
-    many(later(kw("surface", "LABEL RADIUS mm index N", "a refracting surface"))),
+    many(kw(
+        "gap",
+        "LENGTH [index N]",
+        "distance to the next element, in air unless an index is given",
+    )),
+    many(later(kw(
+        "surface",
+        "LABEL RADIUS mm index N",
+        "a refracting surface",
+    ))),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,
 ];
 
 const MODEL_EYE: &[KeywordSpec] = &[
-    later(kw("from", "gullstrand | le-grand | emsley", "the published schematic eye to start from")),
+    later(kw(
+        "from",
+        "gullstrand | le-grand | emsley",
+        "the published schematic eye to start from",
+    )),
     later(kw("axial-length", "LENGTH mm", "axial length override")),
-    many(later(kw("surface", "N radius RADIUS mm [index N] [distance LENGTH mm]", "override one surface"))),
+    many(later(kw(
+        "surface",
+        "N radius RADIUS mm [index N] [distance LENGTH mm]",
+        "override one surface",
+    ))),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,
 ];

@@ -7,15 +7,30 @@ use crate::derived::Source;
 macro_rules! source {
     ($name:ident, $tag:literal, $citation:literal) => {
         #[doc = $citation]
-        pub const $name: Source = Source { citation: $citation, tag: $tag };
+        pub const $name: Source = Source {
+            citation: $citation,
+            tag: $tag,
+        };
     };
 }
 
-source!(THIBOS_1997, "S", "Thibos, Wheeler & Horner, Power vectors, Optom Vis Sci 1997;74:367-375");
+source!(
+    THIBOS_1997,
+    "S",
+    "Thibos, Wheeler & Horner, Power vectors, Optom Vis Sci 1997;74:367-375"
+);
 source!(POWER_MATRIX, "M", "dioptric power matrix: Long, Am J Optom Physiol Opt 1976; Keating, Am J Optom Physiol Opt 1981");
 source!(VERGENCE, "M", "thin-lens vergence relations, e.g. Keating, Geometric, Physical, and Visual Optics, 2nd ed. 2002");
-source!(ROUNDING, "CP", "rounding to the nearest 0.25 D step (common practice, no source)");
-source!(KERATOMETRIC, "S", "keratometric index 1.3375, K = 337.5 / r(mm): Shammas et al., Am J Ophthalmol 2003;136:426");
+source!(
+    ROUNDING,
+    "CP",
+    "rounding to the nearest 0.25 D step (common practice, no source)"
+);
+source!(
+    KERATOMETRIC,
+    "S",
+    "keratometric index 1.3375, K = 337.5 / r(mm): Shammas et al., Am J Ophthalmol 2003;136:426"
+);
 source!(ASTIGMATISM_BANDS, "CP", "with-the-rule: minus-cylinder axis 180 ± 30; against-the-rule: 90 ± 30; oblique otherwise (common practice, no source)");
 source!(GULLSTRAND_THICK, "S", "Gullstrand's equation F = F1 + F2 - (t/n)F1F2, indices of Gullstrand's exact eye: Atchison & Smith, Optics of the Human Eye, 2000");
 source!(TANG_2006, "S", "keratometric overestimate of total corneal power: Tang et al., J Cataract Refract Surg 2006;32:1843");
@@ -27,5 +42,6 @@ holds: K misstates true corneal power (Hamed et al. 2002; Tang et al. 2006; Sham
 it for IOL or contact lens calculations without a validated adjustment; verify clinically.";
 
 /// Caution attached to vertex-compensated powers.
-pub const CAUTION_VERTEX: &str = "Vertex-compensated powers depend on the vertex distance as actually \
+pub const CAUTION_VERTEX: &str =
+    "Vertex-compensated powers depend on the vertex distance as actually \
 fitted; verify it clinically before ordering.";

@@ -65,35 +65,227 @@ macro_rules! spec {
 
 // Ranges are [CP]: what practice meets, wide enough that a real case never trips
 // them and narrow enough to catch a unit slip (13 m for 13 mm, 78 mm for 7.8 mm).
-spec!(SPHERE, "sphere", Power, Some(Unit::Dioptre), Dioptre, -30.0, 30.0);
-spec!(CYLINDER, "cylinder", Power, Some(Unit::Dioptre), Dioptre, -10.0, 10.0);
+spec!(
+    SPHERE,
+    "sphere",
+    Power,
+    Some(Unit::Dioptre),
+    Dioptre,
+    -30.0,
+    30.0
+);
+spec!(
+    CYLINDER,
+    "cylinder",
+    Power,
+    Some(Unit::Dioptre),
+    Dioptre,
+    -10.0,
+    10.0
+);
 spec!(AXIS, "axis", Angle, Some(Unit::Degree), Degree, 0.0, 180.0);
-spec!(MERIDIAN, "meridian", Angle, Some(Unit::Degree), Degree, 0.0, 180.0);
-spec!(ADD, "reading addition", Power, Some(Unit::Dioptre), Dioptre, 0.25, 4.0);
-spec!(VERTEX, "vertex distance", Length, None, Millimetre, 0.0, 0.025);
-spec!(CORNEAL_RADIUS, "corneal radius", Length, None, Millimetre, 0.0055, 0.0100);
-spec!(POSTERIOR_RADIUS, "posterior corneal radius", Length, None, Millimetre, 0.0045, 0.0085);
-spec!(K_POWER, "keratometric power", Power, None, Dioptre, 33.0, 61.0);
-spec!(CORNEAL_THICKNESS, "corneal thickness", Length, None, Millimetre, 0.0003, 0.0008);
-spec!(AXIAL_LENGTH, "axial length", Length, None, Millimetre, 0.018, 0.035);
-spec!(PD, "monocular pupillary distance", Length, None, Millimetre, 0.020, 0.045);
+spec!(
+    MERIDIAN,
+    "meridian",
+    Angle,
+    Some(Unit::Degree),
+    Degree,
+    0.0,
+    180.0
+);
+spec!(
+    ADD,
+    "reading addition",
+    Power,
+    Some(Unit::Dioptre),
+    Dioptre,
+    0.25,
+    4.0
+);
+spec!(
+    VERTEX,
+    "vertex distance",
+    Length,
+    None,
+    Millimetre,
+    0.0,
+    0.025
+);
+spec!(
+    CORNEAL_RADIUS,
+    "corneal radius",
+    Length,
+    None,
+    Millimetre,
+    0.0055,
+    0.0100
+);
+spec!(
+    POSTERIOR_RADIUS,
+    "posterior corneal radius",
+    Length,
+    None,
+    Millimetre,
+    0.0045,
+    0.0085
+);
+spec!(
+    K_POWER,
+    "keratometric power",
+    Power,
+    None,
+    Dioptre,
+    33.0,
+    61.0
+);
+spec!(
+    CORNEAL_THICKNESS,
+    "corneal thickness",
+    Length,
+    None,
+    Millimetre,
+    0.0003,
+    0.0008
+);
+spec!(
+    AXIAL_LENGTH,
+    "axial length",
+    Length,
+    None,
+    Millimetre,
+    0.018,
+    0.035
+);
+spec!(
+    PD,
+    "monocular pupillary distance",
+    Length,
+    None,
+    Millimetre,
+    0.020,
+    0.045
+);
 spec!(AGE, "age", Time, None, Year, 0.0, 120.0);
 spec!(INDEX, "refractive index", Ratio, None, Degree, 1.0, 2.0);
 spec!(TILT, "pantoscopic tilt", Angle, None, Degree, -10.0, 25.0);
-spec!(FACE_FORM, "face form angle", Angle, None, Degree, -5.0, 35.0);
-spec!(FITTING_HEIGHT, "fitting height", Length, None, Millimetre, 0.008, 0.040);
-spec!(READING_DROP, "reading drop", Length, None, Millimetre, 0.0, 0.020);
-spec!(NEAR_INSET, "near inset", Length, None, Millimetre, 0.0, 0.006);
-spec!(CENTRE_DISTANCE, "distance between optical centres", Length, None, Millimetre, 0.040, 0.090);
-spec!(LENS_POWER, "lens power", Power, None, Dioptre, -100.0, 100.0);
+spec!(
+    FACE_FORM,
+    "face form angle",
+    Angle,
+    None,
+    Degree,
+    -5.0,
+    35.0
+);
+spec!(
+    FITTING_HEIGHT,
+    "fitting height",
+    Length,
+    None,
+    Millimetre,
+    0.008,
+    0.040
+);
+spec!(
+    READING_DROP,
+    "reading drop",
+    Length,
+    None,
+    Millimetre,
+    0.0,
+    0.020
+);
+spec!(
+    NEAR_INSET,
+    "near inset",
+    Length,
+    None,
+    Millimetre,
+    0.0,
+    0.006
+);
+spec!(
+    CENTRE_DISTANCE,
+    "distance between optical centres",
+    Length,
+    None,
+    Millimetre,
+    0.040,
+    0.090
+);
+spec!(
+    LENS_POWER,
+    "lens power",
+    Power,
+    None,
+    Dioptre,
+    -100.0,
+    100.0
+);
 spec!(GAP, "gap", Length, None, Centimetre, 0.0, 20.0);
-spec!(OBJECT_DISTANCE, "object distance", Length, None, Centimetre, 0.0, 1000.0);
-spec!(TOLERANCE_POWER, "tolerance", Power, Some(Unit::Dioptre), Dioptre, 0.0, 5.0);
-spec!(LENS_THICKNESS, "thickness", Length, None, Millimetre, 0.0003, 0.030);
+spec!(
+    OBJECT_DISTANCE,
+    "object distance",
+    Length,
+    None,
+    Centimetre,
+    0.0,
+    1000.0
+);
+spec!(
+    TOLERANCE_POWER,
+    "tolerance",
+    Power,
+    Some(Unit::Dioptre),
+    Dioptre,
+    0.0,
+    5.0
+);
+spec!(
+    LENS_THICKNESS,
+    "thickness",
+    Length,
+    None,
+    Millimetre,
+    0.0003,
+    0.030
+);
 spec!(DIAMETER, "diameter", Length, None, Millimetre, 0.005, 0.090);
-spec!(CL_BASE_CURVE, "base curve radius", Length, None, Millimetre, 0.0060, 0.0100);
-spec!(BASE_CURVE_POWER, "base curve", Power, Some(Unit::Dioptre), Dioptre, 0.0, 20.0);
+spec!(
+    CL_BASE_CURVE,
+    "base curve radius",
+    Length,
+    None,
+    Millimetre,
+    0.0060,
+    0.0100
+);
+spec!(
+    BASE_CURVE_POWER,
+    "base curve",
+    Power,
+    Some(Unit::Dioptre),
+    Dioptre,
+    0.0,
+    20.0
+);
 spec!(PRISM, "prism", Prism, None, PrismDioptre, 0.0, 20.0);
-spec!(SURFACE_RADIUS, "surface radius", Length, None, Millimetre, -1.0, 1.0);
-spec!(MODEL_DISTANCE, "distance", Length, None, Millimetre, 0.0, 0.05);
+spec!(
+    SURFACE_RADIUS,
+    "surface radius",
+    Length,
+    None,
+    Millimetre,
+    -1.0,
+    1.0
+);
+spec!(
+    MODEL_DISTANCE,
+    "distance",
+    Length,
+    None,
+    Millimetre,
+    0.0,
+    0.05
+);
 spec!(LEVEL, "a plain number", Ratio, None, Degree, -1.0e9, 1.0e9);

@@ -14,7 +14,11 @@ pub const INDENT: &str = "  ";
 
 /// Format a whole file. Idempotent: formatting the result again returns it unchanged.
 pub fn format(parsed: &Parsed) -> String {
-    let eol = if parsed.source.split('\n').next().is_some_and(|l| l.ends_with('\r'))
+    let eol = if parsed
+        .source
+        .split('\n')
+        .next()
+        .is_some_and(|l| l.ends_with('\r'))
         && parsed.source.contains('\n')
     {
         "\r\n"
@@ -44,11 +48,13 @@ pub fn format(parsed: &Parsed) -> String {
         out.push_str(&text);
         out.push_str(eol);
         pending_blank = false;
-        last = Some(if line.indent == 0 && matches!(line.kind, LineKind::Trivia) {
-            Emitted::TopComment
-        } else {
-            Emitted::Other
-        });
+        last = Some(
+            if line.indent == 0 && matches!(line.kind, LineKind::Trivia) {
+                Emitted::TopComment
+            } else {
+                Emitted::Other
+            },
+        );
     }
     out
 }
@@ -64,7 +70,14 @@ pub fn format_line(parsed: &Parsed, line: &Line) -> String {
     let comment = line.comment.map(|c| parsed.text(c).trim_end());
     let mut out = String::new();
     match &line.kind {
-        LineKind::Error { .. } => return parsed.text(line.span).trim_end().to_owned(),
+        // Only trailing spaces, tabs and carriage returns are trimmed: any other character may be what made the
+        // line unreadable, and the formatter never changes meaning.
+        LineKind::Error { .. } => {
+            return parsed
+                .text(line.span)
+                .trim_end_matches([' ', '\t', '\r'])
+                .to_owned()
+        }
         LineKind::Trivia => {
             if let Some(c) = comment {
                 if line.indent > 0 {
@@ -90,14 +103,16 @@ pub fn format_line(parsed: &Parsed, line: &Line) -> String {
 /// Canonical text of a statement's keyword and values.
 pub fn write_statement(parsed: &Parsed, statement: &Statement, out: &mut String) {
     out.push_str(parsed.text(statement.keyword));
-    for value in &statement.values {
+    for (i, value) in statement.values.iter().enumerate() {
         let is_comma = matches!(
             value.kind,
             ValueKind::Symbol {
                 symbol: crate::Symbol::Comma
             }
         );
-        if !is_comma {
+        // A comma hugs the value before it, but never the keyword (values must
+        // start after white space).
+        if !is_comma || i == 0 {
             out.push(' ');
         }
         match &value.kind {

@@ -22,14 +22,12 @@ pub fn parse(source: &str) -> Parsed {
     match Grammar::parse(Rule::file, source) {
         Ok(mut pairs) => {
             let file = pairs.next().expect("file rule yields one pair");
-            let mut line_no = 0;
-            for pair in file.into_inner() {
+            for (line_no, pair) in file.into_inner().enumerate() {
                 if pair.as_rule() == Rule::EOI {
                     break;
                 }
                 let span = index.line_span(source, line_no);
                 lines.push(walk_line(pair, span, 0));
-                line_no += 1;
             }
         }
         Err(_) => {
@@ -63,12 +61,6 @@ pub fn parse(source: &str) -> Parsed {
     let blocks = group_blocks(source, &mut lines, &mut errors);
     errors.sort_by_key(|e| e.span.start);
     // Error lines point into `errors` by index: renumber after sorting.
-    let mut by_start: Vec<(usize, usize)> = errors
-        .iter()
-        .enumerate()
-        .map(|(i, e)| (e.span.start, i))
-        .collect();
-    by_start.sort();
     for line in &mut lines {
         if let LineKind::Error { error } = &mut line.kind {
             if let Some(i) = errors
@@ -205,7 +197,9 @@ fn line_error(text: &str, base: usize, at: usize) -> SyntaxError {
         let kinds = BlockKind::ALL.map(BlockKind::keyword);
         let suggestion = did_you_mean(first_word, kinds);
         let hint = match suggestion {
-            Some(s) => format!("did you mean `{s}`? (if this line is a statement, indent it under its block)"),
+            Some(s) => format!(
+                "did you mean `{s}`? (if this line is a statement, indent it under its block)"
+            ),
             None => format!(
                 "a block starts at column 0 with one of: {}; the statements under it are indented",
                 kinds.join(", ")
@@ -238,7 +232,7 @@ fn line_error(text: &str, base: usize, at: usize) -> SyntaxError {
                 .max(at + c.len_utf8());
             (
                 Span::new(base + at, base + end),
-                format!("unexpected `{}`", &text[at..end]),
+                format!("unexpected `{}`", text[at..end].escape_debug()),
             )
         }
         None => (
@@ -284,16 +278,17 @@ fn group_blocks(source: &str, lines: &mut [Line], errors: &mut Vec<SyntaxError>)
     let mut open: Option<(BlockKind, usize, usize)> = None;
     // After an unreadable column-0 line, indented lines are its body: no extra errors.
     let mut orphaned = false;
-    let close = |open: Option<(BlockKind, usize, usize)>, lines: &[Line], blocks: &mut Vec<Block>| {
-        if let Some((kind, header, last)) = open {
-            blocks.push(Block {
-                kind,
-                header,
-                end: last + 1,
-                span: Span::new(lines[header].span.start, lines[last].span.end),
-            });
-        }
-    };
+    let close =
+        |open: Option<(BlockKind, usize, usize)>, lines: &[Line], blocks: &mut Vec<Block>| {
+            if let Some((kind, header, last)) = open {
+                blocks.push(Block {
+                    kind,
+                    header,
+                    end: last + 1,
+                    span: Span::new(lines[header].span.start, lines[last].span.end),
+                });
+            }
+        };
     for i in 0..lines.len() {
         let top = lines[i].indent == 0;
         match &lines[i].kind {

@@ -3,7 +3,9 @@
 use serde::{Deserialize, Serialize};
 
 /// A half-open byte range `start..end` into the source text of one file.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Default, Serialize, Deserialize, PartialOrd, Ord)]
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, Hash, Default, Serialize, Deserialize, PartialOrd, Ord,
+)]
 pub struct Span {
     /// First byte of the range.
     pub start: usize,

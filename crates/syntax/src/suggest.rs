@@ -2,7 +2,10 @@
 //! Damerau-Levenshtein fallback for short words).
 
 /// The candidate closest to `word`, if any is close enough to be a likely typo.
-pub fn did_you_mean<'a>(word: &str, candidates: impl IntoIterator<Item = &'a str>) -> Option<&'a str> {
+pub fn did_you_mean<'a>(
+    word: &str,
+    candidates: impl IntoIterator<Item = &'a str>,
+) -> Option<&'a str> {
     let word_l = word.to_lowercase();
     let mut best: Option<(f64, &'a str)> = None;
     for c in candidates {

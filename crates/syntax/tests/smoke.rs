@@ -26,7 +26,13 @@ fn one_bad_line_costs_one_error() {
     let got: Vec<(&str, (usize, usize), String)> = p
         .errors
         .iter()
-        .map(|e| (e.code, p.index.line_col(&p.source, e.span.start), e.message.clone()))
+        .map(|e| {
+            (
+                e.code,
+                p.index.line_col(&p.source, e.span.start),
+                e.message.clone(),
+            )
+        })
         .collect();
     assert_eq!(got.len(), 3, "{got:?}");
     assert_eq!(got[0].0, codes::UNKNOWN_BLOCK);

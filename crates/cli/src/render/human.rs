@@ -29,13 +29,22 @@ pub fn diagnostics(name: &str, parsed: &Parsed, diags: &[Diagnostic]) -> String 
 pub fn diagnostic(out: &mut String, name: &str, parsed: &Parsed, d: &Diagnostic) {
     let src = &parsed.source;
     let (line, col) = parsed.index.line_col(src, d.span.start);
-    let _ = writeln!(out, "{name}:{line}:{col}: {} {}: {}", d.severity.name(), d.code, d.message);
+    let _ = writeln!(
+        out,
+        "{name}:{line}:{col}: {} {}: {}",
+        d.severity.name(),
+        d.code,
+        d.message
+    );
     let line_span = parsed.index.line_span(src, line - 1);
     let text = &src[line_span.start..line_span.end];
     let gutter = line.to_string().len().max(3);
     let _ = writeln!(out, " {line:>gutter$} | {text}");
     let end = d.span.end.min(line_span.end).max(d.span.start);
-    let width = src[d.span.start.min(src.len())..end.min(src.len())].chars().count().max(1);
+    let width = src[d.span.start.min(src.len())..end.min(src.len())]
+        .chars()
+        .count()
+        .max(1);
     let lead: String = src[line_span.start..d.span.start.min(line_span.end)]
         .chars()
         .map(|c| if c == '\t' { '\t' } else { ' ' })
@@ -69,10 +78,24 @@ pub fn summary(files: usize, [e, w, i]: [usize; 3], expects: usize) -> String {
 pub fn derived_table(parsed: &Parsed, derived: &[Derived], explain: bool) -> String {
     let mut out = String::new();
     let mut current_block: Option<&str> = None;
-    let name_w = derived.iter().map(|d| d.name.chars().count()).max().unwrap_or(0).min(34);
-    let text_w = derived.iter().map(|d| d.text.chars().count()).max().unwrap_or(0).min(30);
+    let name_w = derived
+        .iter()
+        .map(|d| d.name.chars().count())
+        .max()
+        .unwrap_or(0)
+        .min(34);
+    let text_w = derived
+        .iter()
+        .map(|d| d.text.chars().count())
+        .max()
+        .unwrap_or(0)
+        .min(30);
     for d in derived {
-        let block = d.key.strip_suffix(&d.name).unwrap_or(&d.key).trim_end_matches('.');
+        let block = d
+            .key
+            .strip_suffix(&d.name)
+            .unwrap_or(&d.key)
+            .trim_end_matches('.');
         if current_block != Some(block) {
             if current_block.is_some() {
                 out.push('\n');
@@ -82,7 +105,12 @@ pub fn derived_table(parsed: &Parsed, derived: &[Derived], explain: bool) -> Str
                 .blocks
                 .iter()
                 .find(|b| b.span.start <= d.span.start && d.span.start <= b.span.end)
-                .map(|b| parsed.text(parsed.lines[b.header].span).trim_end().to_owned())
+                .map(|b| {
+                    parsed
+                        .text(parsed.lines[b.header].span)
+                        .trim_end()
+                        .to_owned()
+                })
                 .unwrap_or_else(|| block.to_owned());
             let _ = writeln!(out, "{header}    [{block}, from line {line}]");
             current_block = Some(block);
@@ -94,10 +122,22 @@ pub fn derived_table(parsed: &Parsed, derived: &[Derived], explain: bool) -> Str
             d.name, d.text, d.label
         );
         if explain {
-            let _ = writeln!(out, "  {:<name_w$}    formula: {}", "", d.derivation.formula);
-            let _ = writeln!(out, "  {:<name_w$}    numbers: {}", "", d.derivation.substituted);
+            let _ = writeln!(
+                out,
+                "  {:<name_w$}    formula: {}",
+                "", d.derivation.formula
+            );
+            let _ = writeln!(
+                out,
+                "  {:<name_w$}    numbers: {}",
+                "", d.derivation.substituted
+            );
             let s = d.derivation.source;
-            let _ = writeln!(out, "  {:<name_w$}    source:  {} [{}]", "", s.citation, s.tag);
+            let _ = writeln!(
+                out,
+                "  {:<name_w$}    source:  {} [{}]",
+                "", s.citation, s.tag
+            );
             if let Some(c) = d.caution {
                 let _ = writeln!(out, "  {:<name_w$}    caution: {c}", "");
             }

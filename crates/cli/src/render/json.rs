@@ -35,7 +35,12 @@ pub fn file_diagnostics(name: &str, parsed: &Parsed, diags: &[Diagnostic]) -> Va
 }
 
 /// The whole `check --format json` report.
-pub fn check_report(files: Vec<Value>, [e, w, i]: [usize; 3], count: usize, io_errors: &[String]) -> Value {
+pub fn check_report(
+    files: Vec<Value>,
+    [e, w, i]: [usize; 3],
+    count: usize,
+    io_errors: &[String],
+) -> Value {
     json!({
         "files": files,
         "summary": { "files": count, "errors": e, "warnings": w, "notes": i, "unreadable": io_errors },
@@ -63,7 +68,12 @@ pub fn derived(parsed: &Parsed, d: &Derived) -> Value {
 }
 
 /// The whole `eval --format json` report.
-pub fn eval_report(name: &str, parsed: &Parsed, derived_values: &[Derived], diags: &[Diagnostic]) -> Value {
+pub fn eval_report(
+    name: &str,
+    parsed: &Parsed,
+    derived_values: &[Derived],
+    diags: &[Diagnostic],
+) -> Value {
     json!({
         "file": name,
         "derived": derived_values.iter().map(|d| derived(parsed, d)).collect::<Vec<_>>(),

@@ -110,7 +110,13 @@ fn refraction(
         V::Power { dioptres: b },
         span,
         "B = √(M² + J0² + J45²)",
-        format!("B = √({}² + {}² + {}²) = {}", n4(m), n4(pv.j0), n4(pv.j45), n4(b)),
+        format!(
+            "B = √({}² + {}² + {}²) = {}",
+            n4(m),
+            n4(pv.j0),
+            n4(pv.j45),
+            n4(b)
+        ),
         src::THIBOS_1997,
     );
     let meridians = rx.principal_meridians();
@@ -143,7 +149,12 @@ fn refraction(
         Some(d) if d > 0.0 => (transfer_sphcyl(&rx, d), "the cornea"),
         _ => (rx, "the correcting plane"),
     };
-    for (i, (fp, mer)) in far_rx.far_points().iter().zip(far_rx.principal_meridians()).enumerate() {
+    for (i, (fp, mer)) in far_rx
+        .far_points()
+        .iter()
+        .zip(far_rx.principal_meridians())
+        .enumerate()
+    {
         let value = match fp {
             FarPoint::Infinity => V::Infinity,
             FarPoint::At { distance_m } => V::Distance {
@@ -157,24 +168,46 @@ fn refraction(
             value,
             span,
             "far point at 1/F from the correcting plane",
-            format!("1 / {} D = {} m (meridian {})", n4(mer.power), n4(1.0 / mer.power), n4(mer.meridian)),
+            format!(
+                "1 / {} D = {} m (meridian {})",
+                n4(mer.power),
+                n4(1.0 / mer.power),
+                n4(mer.meridian)
+            ),
             src::VERGENCE,
         );
     }
     let strongest = meridians.iter().map(|m| m.power.abs()).fold(0.0, f64::max);
     match vertex {
         Some(d) if d > 0.0 => {
-            vertex_transfer(&rx, d, 0.0, "corneal-plane", "at the corneal plane", span, out, diags, strongest);
+            vertex_transfer(
+                &rx,
+                d,
+                0.0,
+                "corneal-plane",
+                "at the corneal plane",
+                span,
+                out,
+                diags,
+                strongest,
+            );
         }
         Some(_) => {}
-        None if strongest > MEANINGFUL_CHANGE_THRESHOLD_D && !r.value.vertex_unreadable => diags.push(
+        None if strongest > MEANINGFUL_CHANGE_THRESHOLD_D && !r.value.vertex_unreadable => diags
+            .push(
             Diagnostic::new(
                 codes::VERTEX_UNKNOWN,
                 Severity::Warning,
                 span,
                 format!(
                     "a meridian of {} D: the vertex distance matters, but it is not recorded",
-                    fmt_power(meridians.iter().map(|m| m.power).fold(0.0, |a: f64, b| if b.abs() > a.abs() { b } else { a }))
+                    fmt_power(meridians.iter().map(|m| m.power).fold(0.0, |a: f64, b| {
+                        if b.abs() > a.abs() {
+                            b
+                        } else {
+                            a
+                        }
+                    }))
                 ),
             )
             .hint("add `@ VERTEX mm` with the vertex distance at which the refraction was measured")
@@ -184,10 +217,22 @@ fn refraction(
     }
     if let (Some(d), Some(fv)) = (
         vertex,
-        case.frames.iter().find_map(|f| f.vertex.as_ref().map(|v| v.value)),
+        case.frames
+            .iter()
+            .find_map(|f| f.vertex.as_ref().map(|v| v.value)),
     ) {
         if (fv - d).abs() > 1e-9 {
-            vertex_transfer(&rx, d, fv, "at-frame-vertex", "at the frame's vertex distance", span, out, diags, strongest);
+            vertex_transfer(
+                &rx,
+                d,
+                fv,
+                "at-frame-vertex",
+                "at the frame's vertex distance",
+                span,
+                out,
+                diags,
+                strongest,
+            );
         }
     }
     if let Some(add) = &e.add {
@@ -288,8 +333,14 @@ fn keratometry(
     diags: &mut Vec<Diagnostic>,
 ) {
     let span = k.span;
-    let index = e.keratometric_index.as_ref().map_or(KERATOMETRIC_INDEX, |i| i.value);
-    let caution = e.refractive_surgery.as_ref().map(|_| src::CAUTION_REFRACTIVE_SURGERY);
+    let index = e
+        .keratometric_index
+        .as_ref()
+        .map_or(KERATOMETRIC_INDEX, |i| i.value);
+    let caution = e
+        .refractive_surgery
+        .as_ref()
+        .map(|_| src::CAUTION_REFRACTIVE_SURGERY);
     if let Some(rs) = &e.refractive_surgery {
         diags.push(
             Diagnostic::new(
@@ -300,7 +351,11 @@ fn keratometry(
             )
             .hint(format!(
                 "history recorded: {}; use a method validated after surgery",
-                if rs.value.is_empty() { "refractive surgery" } else { &rs.value }
+                if rs.value.is_empty() {
+                    "refractive surgery"
+                } else {
+                    &rs.value
+                }
             ))
             .caution(src::CAUTION_REFRACTIVE_SURGERY),
         );
@@ -310,8 +365,15 @@ fn keratometry(
         meridian: m.meridian,
     });
     let ast = corneal_astigmatism(readings[0], readings[1]);
-    for (name, label, r) in [("k-flat", "flat K", ast.flat), ("k-steep", "steep K", ast.steep)] {
-        let radius = k.value.iter().find(|m| m.meridian == r.meridian).map_or(f64::NAN, |m| m.radius);
+    for (name, label, r) in [
+        ("k-flat", "flat K", ast.flat),
+        ("k-steep", "steep K", ast.steep),
+    ] {
+        let radius = k
+            .value
+            .iter()
+            .find(|m| m.meridian == r.meridian)
+            .map_or(f64::NAN, |m| m.radius);
         out.push(
             name,
             label,
@@ -329,10 +391,17 @@ fn keratometry(
     out.push(
         "mean-k",
         "mean K",
-        V::Power { dioptres: ast.mean_k },
+        V::Power {
+            dioptres: ast.mean_k,
+        },
         span,
         "mean K = (K1 + K2) / 2",
-        format!("({} + {}) / 2 = {}", n4(ast.flat.power), n4(ast.steep.power), n4(ast.mean_k)),
+        format!(
+            "({} + {}) / 2 = {}",
+            n4(ast.flat.power),
+            n4(ast.steep.power),
+            n4(ast.mean_k)
+        ),
         src::KERATOMETRIC,
     )
     .caution = caution;
@@ -345,7 +414,13 @@ fn keratometry(
         },
         span,
         "C = K_flat − K_steep, axis along the flat meridian (minus-cylinder form)",
-        format!("{} − {} = {} x {}", n4(ast.flat.power), n4(ast.steep.power), n4(ast.cylinder), n4(ast.axis)),
+        format!(
+            "{} − {} = {} x {}",
+            n4(ast.flat.power),
+            n4(ast.steep.power),
+            n4(ast.cylinder),
+            n4(ast.axis)
+        ),
         src::KERATOMETRIC,
     )
     .caution = caution;

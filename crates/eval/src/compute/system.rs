@@ -18,7 +18,9 @@ pub fn block_id(s: &System) -> String {
 fn place(p: ImagePlace, label: &str) -> V {
     match p {
         ImagePlace::AtInfinity => V::Infinity,
-        ImagePlace::At { after_element_m, .. } => V::Distance {
+        ImagePlace::At {
+            after_element_m, ..
+        } => V::Distance {
             metres: after_element_m,
             from: label.to_owned(),
         },
@@ -37,8 +39,13 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         .collect();
     let Some(&(first_i, first_label)) = lenses.first() else {
         diags.push(
-            Diagnostic::new(codes::SYSTEM_LAYOUT, Severity::Warning, s.span, "this system has no lens")
-                .hint("add `lens LABEL POWER D` lines"),
+            Diagnostic::new(
+                codes::SYSTEM_LAYOUT,
+                Severity::Warning,
+                s.span,
+                "this system has no lens",
+            )
+            .hint("add `lens LABEL POWER D` lines"),
         );
         return;
     };
@@ -56,21 +63,32 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
     }
     let object = match &s.object.value {
         ObjectAt::Infinity => Object::AtInfinity,
-        ObjectAt::Before { distance, label, label_span } => {
+        ObjectAt::Before {
+            distance,
+            label,
+            label_span,
+        } => {
             if label != first_label {
                 let known = lenses.iter().any(|(_, l)| l == label);
                 let msg = if known {
-                    format!("the object distance must be measured to the first lens, `{first_label}`")
+                    format!(
+                        "the object distance must be measured to the first lens, `{first_label}`"
+                    )
                 } else {
                     format!("there is no lens `{label}` in this system")
                 };
                 diags.push(
-                    Diagnostic::new(codes::SYSTEM_LAYOUT, Severity::Error, *label_span, msg)
-                        .fix(format!("measure from `{first_label}`"), *label_span, first_label),
+                    Diagnostic::new(codes::SYSTEM_LAYOUT, Severity::Error, *label_span, msg).fix(
+                        format!("measure from `{first_label}`"),
+                        *label_span,
+                        first_label,
+                    ),
                 );
                 return;
             }
-            Object::Distance { before_first_m: *distance }
+            Object::Distance {
+                before_first_m: *distance,
+            }
         }
     };
     let elements: Vec<Element> = s
@@ -78,17 +96,26 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         .iter()
         .map(|e| match &e.value {
             SystemElement::Lens { power, .. } => Element::ThinLens { power: *power },
-            SystemElement::Gap { length, index } => Element::Gap { length_m: *length, index: *index },
+            SystemElement::Gap { length, index } => Element::Gap {
+                length_m: *length,
+                index: *index,
+            },
         })
         .collect();
     let t = trace(object, &elements, 1.0);
     let mut chain = match object {
         Object::AtInfinity => "L = 0 (object at infinity)".to_owned(),
-        Object::Distance { before_first_m } => format!("L = 1/(−{}) = {}", n4(before_first_m), n4(-1.0 / before_first_m)),
+        Object::Distance { before_first_m } => format!(
+            "L = 1/(−{}) = {}",
+            n4(before_first_m),
+            n4(-1.0 / before_first_m)
+        ),
     };
     for step in &t.steps {
         let el = &s.elements[step.element_index];
-        let SystemElement::Lens { label, power } = &el.value else { continue };
+        let SystemElement::Lens { label, power } = &el.value else {
+            continue;
+        };
         let span = el.span;
         let line = format!(
             "{label}: L = {}, L' = L + F = {} + {} = {}",
@@ -102,16 +129,20 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         out.push(
             &format!("{label}.vergence-in"),
             &format!("vergence arriving at {label}"),
-            V::Power { dioptres: step.incident_vergence },
+            V::Power {
+                dioptres: step.incident_vergence,
+            },
             span,
             "L2 = L1' / (1 − (d/n)·L1')",
-            format!("{chain}"),
+            chain.clone(),
             src::VERGENCE,
         );
         out.push(
             &format!("{label}.vergence-out"),
             &format!("vergence leaving {label}"),
-            V::Power { dioptres: step.emergent_vergence },
+            V::Power {
+                dioptres: step.emergent_vergence,
+            },
             span,
             "L' = L + F",
             line.clone(),
@@ -119,8 +150,14 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         );
         let image_sub = match step.image {
             ImagePlace::AtInfinity => "L' = 0: image at infinity".to_owned(),
-            ImagePlace::At { after_element_m, .. } => {
-                format!("l' = n/L' = 1/{} = {} m", n4(step.emergent_vergence), n4(after_element_m))
+            ImagePlace::At {
+                after_element_m, ..
+            } => {
+                format!(
+                    "l' = n/L' = 1/{} = {} m",
+                    n4(step.emergent_vergence),
+                    n4(after_element_m)
+                )
             }
         };
         out.push(
@@ -139,7 +176,12 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
                 V::Number { value: m },
                 span,
                 "m = L / L'",
-                format!("m = {} / {} = {}", n4(step.incident_vergence), n4(step.emergent_vergence), n4(m)),
+                format!(
+                    "m = {} / {} = {}",
+                    n4(step.incident_vergence),
+                    n4(step.emergent_vergence),
+                    n4(m)
+                ),
                 src::VERGENCE,
             );
         }
@@ -156,7 +198,11 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         src::VERGENCE,
     );
     if let Some(m) = t.total_magnification {
-        let factors: Vec<String> = t.steps.iter().filter_map(|s| s.magnification.map(n4)).collect();
+        let factors: Vec<String> = t
+            .steps
+            .iter()
+            .filter_map(|s| s.magnification.map(n4))
+            .collect();
         out.push(
             "magnification",
             "total lateral magnification",
@@ -184,17 +230,38 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         V::Text { text: kind.clone() },
         last_span,
         "real when the final vergence L' > 0; erect when m > 0",
-        format!("{kind}"),
+        kind.clone(),
         src::VERGENCE,
     );
     // Powers by matrices, up to the last lens (a trailing gap is image space).
     let m = system_matrix(&elements[..=last_i]);
     let p = system_powers(&m);
-    let msub = format!("A = {}, B = {}, C = {}, D = {}", n4(m.a), n4(m.b), n4(m.c), n4(m.d));
+    let msub = format!(
+        "A = {}, B = {}, C = {}, D = {}",
+        n4(m.a),
+        n4(m.b),
+        n4(m.c),
+        n4(m.d)
+    );
     for (name, label, formula, value) in [
-        ("equivalent-power", "equivalent power", "F = −C", p.equivalent),
-        ("back-vertex-power", "back vertex power", "F'v = −C / A", p.back_vertex),
-        ("front-vertex-power", "front vertex power", "Fv = −C / D", p.front_vertex),
+        (
+            "equivalent-power",
+            "equivalent power",
+            "F = −C",
+            p.equivalent,
+        ),
+        (
+            "back-vertex-power",
+            "back vertex power",
+            "F'v = −C / A",
+            p.back_vertex,
+        ),
+        (
+            "front-vertex-power",
+            "front vertex power",
+            "Fv = −C / D",
+            p.front_vertex,
+        ),
     ] {
         if value.is_finite() {
             out.push(
