@@ -46,7 +46,10 @@ fn implausible_values_name_the_range_and_suggest() {
     assert!(d.message.contains("0 mm to 25 mm"), "{}", d.message);
     assert_eq!(d.hint.as_deref(), Some("did you mean 13 mm?"));
     // A corneal radius of 78 mm: the decimal point slipped.
-    let (_, _, d) = only("eye left\n  keratometry 78 mm x 180, 7.7 mm x 90\n", "P0203");
+    let (_, _, d) = only(
+        "eye left\n  keratometry 78 mm x 180, 7.7 mm x 90\n",
+        "P0203",
+    );
     assert!(d.message.contains("5.5 mm to 10 mm"), "{}", d.message);
     assert_eq!(d.hint.as_deref(), Some("did you mean 7.8 mm?"));
 }
@@ -68,23 +71,37 @@ fn unknown_keyword_did_you_mean() {
     assert_eq!((l, c), (2, 3));
     assert_eq!(d.hint.as_deref(), Some("did you mean `refraction`?"));
     let (_, _, d) = only("eye right\n  vertex 12 mm\n", "P0101");
-    assert_eq!(d.hint.as_deref(), Some("`vertex` belongs in a `frame` block"));
+    assert_eq!(
+        d.hint.as_deref(),
+        Some("`vertex` belongs in a `frame` block")
+    );
 }
 
 #[test]
 fn a_bad_line_does_not_stop_the_others() {
     let src = "eye right\n  refraction -1.00 $ -0.50\n  keratometry 7.80 mm x 180, 7.60 mm x 90\n";
     let (_, ev) = evaluate_source(src);
-    assert_eq!(ev.diagnostics.iter().filter(|d| d.severity == Severity::Error).count(), 1);
+    assert_eq!(
+        ev.diagnostics
+            .iter()
+            .filter(|d| d.severity == Severity::Error)
+            .count(),
+        1
+    );
     assert!(ev.derived.iter().any(|d| d.key == "eye.right.mean-k"));
 }
 
 #[test]
 fn expect_mismatch_names_both_values() {
-    let src = "eye right\n  refraction -2.00 / -1.00 x 180\n  expect spherical-equivalent -2.25 D\n";
+    let src =
+        "eye right\n  refraction -2.00 / -1.00 x 180\n  expect spherical-equivalent -2.25 D\n";
     let (l, c, d) = only(src, "P0401");
     assert_eq!((l, c), (3, 31));
-    assert!(d.message.contains("-2.25") || d.message.contains("spherical-equivalent"), "{}", d.message);
+    assert!(
+        d.message.contains("-2.25") || d.message.contains("spherical-equivalent"),
+        "{}",
+        d.message
+    );
     assert!(d.message.contains("-2.50 D"), "{}", d.message);
     assert_eq!(d.fix.unwrap().edits[0].text, "-2.50 D");
     // The same line with the right value passes; the default tolerance is half a step
@@ -97,7 +114,10 @@ fn expect_mismatch_names_both_values() {
 fn expect_unknown_name() {
     let src = "eye right\n  refraction -2.00\n  expect sphericl-equivalent -2.00 D\n";
     let (_, _, d) = only(src, "P0402");
-    assert_eq!(d.hint.as_deref(), Some("did you mean `spherical-equivalent`?"));
+    assert_eq!(
+        d.hint.as_deref(),
+        Some("did you mean `spherical-equivalent`?")
+    );
     let src = "eye right\n  refraction -2.00\n  expect corneal-plane -2.00\n";
     only(src, "P0403");
 }
@@ -110,7 +130,11 @@ fn refractive_surgery_cautions_keratometry() {
     assert_eq!(d.severity, Severity::Warning);
     assert!(d.caution.unwrap().contains("verify clinically"));
     let (_, ev) = evaluate_source(src);
-    let k = ev.derived.iter().find(|d| d.key == "eye.left.mean-k").unwrap();
+    let k = ev
+        .derived
+        .iter()
+        .find(|d| d.key == "eye.left.mean-k")
+        .unwrap();
     assert!(k.caution.is_some());
 }
 
@@ -128,7 +152,10 @@ fn syntax_codes_agree_with_the_code_table() {
         (s::UNEXPECTED, parax_eval::codes::UNEXPECTED),
         (s::UNKNOWN_BLOCK, parax_eval::codes::UNKNOWN_BLOCK),
         (s::OUTSIDE_BLOCK, parax_eval::codes::OUTSIDE_BLOCK),
-        (s::UNTERMINATED_STRING, parax_eval::codes::UNTERMINATED_STRING),
+        (
+            s::UNTERMINATED_STRING,
+            parax_eval::codes::UNTERMINATED_STRING,
+        ),
     ] {
         assert_eq!(syn, table);
     }

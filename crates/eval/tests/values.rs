@@ -13,7 +13,12 @@ fn get<'a>(ev: &'a Evaluation, key: &str) -> &'a V {
     &ev.derived
         .iter()
         .find(|d| d.key == key)
-        .unwrap_or_else(|| panic!("no {key}; have {:?}", ev.derived.iter().map(|d| &d.key).collect::<Vec<_>>()))
+        .unwrap_or_else(|| {
+            panic!(
+                "no {key}; have {:?}",
+                ev.derived.iter().map(|d| &d.key).collect::<Vec<_>>()
+            )
+        })
         .value
 }
 
@@ -40,7 +45,11 @@ fn power_vectors_of_a_refraction() {
     // [C] transposition (S + C, −C, θ ± 90); tol 1e-9
     assert_eq!(
         get(&ev, "eye.right.plus-cyl"),
-        &V::SphCyl { sphere: -4.75, cylinder: 1.5, axis: 80.0 }
+        &V::SphCyl {
+            sphere: -4.75,
+            cylinder: 1.5,
+            axis: 80.0
+        }
     );
 }
 
@@ -48,7 +57,13 @@ fn power_vectors_of_a_refraction() {
 fn meridian_power() {
     let ev = eval("eye left\n  refraction -2.00 / -1.50 x 30\n");
     // [C] F(φ) = S + C sin²(φ − θ): the principal meridians are 30 (−2.00) and 120 (−3.50).
-    assert_eq!(get(&ev, "eye.left.meridian-1"), &V::Meridian { dioptres: -2.0, meridian: 30.0 });
+    assert_eq!(
+        get(&ev, "eye.left.meridian-1"),
+        &V::Meridian {
+            dioptres: -2.0,
+            meridian: 30.0
+        }
+    );
     match get(&ev, "eye.left.meridian-2") {
         V::Meridian { dioptres, meridian } => {
             close(*dioptres, -3.5, 1e-12);
@@ -63,7 +78,11 @@ fn vertex_transfer_of_a_spherocylinder() {
     let ev = eval("eye right\n  refraction -6.00 / -2.00 x 180 @ 12 mm\n");
     // [C] CAPABILITIES §2: meridians −5.5970 @180 and −7.2993 @90 → −5.60 −1.70 × 180; tol 1e-4
     match get(&ev, "eye.right.corneal-plane") {
-        V::SphCyl { sphere, cylinder, axis } => {
+        V::SphCyl {
+            sphere,
+            cylinder,
+            axis,
+        } => {
             close(*sphere, -5.5970, 1e-4);
             close(*cylinder, -7.2993 + 5.5970, 1e-4);
             close(*axis, 180.0, 1e-9);
@@ -73,7 +92,11 @@ fn vertex_transfer_of_a_spherocylinder() {
     // [CP] sphere and cylinder each to the nearest 0.25 D
     assert_eq!(
         get(&ev, "eye.right.corneal-plane-rounded"),
-        &V::SphCyl { sphere: -5.5, cylinder: -1.75, axis: 180.0 }
+        &V::SphCyl {
+            sphere: -5.5,
+            cylinder: -1.75,
+            axis: 180.0
+        }
     );
     // Change above 4 D is meaningful: one note (P0303) on the refraction.
     assert!(ev.diagnostics.iter().any(|d| d.code == "P0303"));
@@ -112,7 +135,12 @@ fn keratometry_and_corneal_astigmatism() {
         }
         v => panic!("{v:?}"),
     }
-    assert_eq!(get(&ev, "eye.right.corneal-astigmatism"), &V::Text { text: "with-the-rule".into() });
+    assert_eq!(
+        get(&ev, "eye.right.corneal-astigmatism"),
+        &V::Text {
+            text: "with-the-rule".into()
+        }
+    );
     // [S] Shammas et al. 2003: 7.50 mm reads 45.00 D with index 1.3375; tol 1e-9
     let ev = eval("eye left\n  keratometry 7.50 mm x 180, 7.50 mm x 90\n");
     close(power(&ev, "eye.left.mean-k"), 45.0, 1e-9);
@@ -157,7 +185,12 @@ fn two_lens_system_by_vergence_and_matrices() {
         V::Number { value } => close(*value, -0.4545, 1e-4),
         v => panic!("{v:?}"),
     }
-    assert_eq!(get(&ev, "system.check.image-kind"), &V::Text { text: "real, inverted".into() });
+    assert_eq!(
+        get(&ev, "system.check.image-kind"),
+        &V::Text {
+            text: "real, inverted".into()
+        }
+    );
     close(power(&ev, "system.check.equivalent-power"), 6.0, 1e-9);
     close(power(&ev, "system.check.back-vertex-power"), 12.0, 1e-9);
     close(power(&ev, "system.check.front-vertex-power"), 7.5, 1e-9);
