@@ -1,0 +1,223 @@
+//! Parse + evaluate throughput of parax text against serde_json reading the same
+//! facts as JSON into the same model (`parax_eval::Case`), on the generated
+//! 10,000-file corpus and on one 5 MB file (the performance requirement:
+//! within 4× of serde_json, stretch 3×).
+//!
+//! Run: `cargo bench -p parax-eval --bench throughput`. Criterion reports each
+//! benchmark (throughput in bytes of its own input: parax text or JSON); a closing
+//! table, from the same samples, compares the two sides by time, which is the fair measure since both read
+//! the same facts (the JSON is `serde_json::to_string` of the case evaluated from
+//! the text).
+//!
+//! What each side does:
+//! - `parax parse`: text → syntax tree (`parax_syntax::parse`).
+//! - `parax parse+evaluate`: text → model + derived values + diagnostics
+//!   (`evaluate_source` = parse, lower, compute, check `expect` lines).
+//! - `parax evaluate (pre-parsed)`: lower + compute from an existing tree.
+//! - `json deserialize`: JSON → model (`serde_json::from_str::<Case>`).
+//! - `json deserialize+evaluate_case`: JSON → model + derived values.
+//! - `model evaluate_case`: compute alone, from an existing model; subtracted from
+//!   `parax parse+evaluate` it gives text → model (parse + lower).
+
+mod corpus;
+
+use criterion::{Criterion, SamplingMode, Throughput};
+use parax_eval::{evaluate, evaluate_case, evaluate_source, Case};
+use std::cell::RefCell;
+use std::collections::HashMap;
+use std::hint::black_box;
+use std::time::{Duration, Instant};
+
+/// One input set: the texts, their JSON, and pre-built trees and models.
+struct Set {
+    name: &'static str,
+    texts: Vec<String>,
+    jsons: Vec<String>,
+    text_bytes: u64,
+    json_bytes: u64,
+}
+
+impl Set {
+    fn new(name: &'static str, texts: Vec<String>) -> Set {
+        let jsons: Vec<String> = texts
+            .iter()
+            .map(|t| {
+                let (_, ev) = evaluate_source(t);
+                let json = serde_json::to_string(&ev.case).expect("a case serializes");
+                // The JSON side must read the same facts and derive the same values.
+                // (Not `back == ev.case`: serde_json's default float parser may
+                // differ from Rust's in the last bit, e.g. 0.0075842696629213465.)
+                let back: Case = serde_json::from_str(&json).expect("the JSON reads back");
+                let (derived, _) = evaluate_case(&back);
+                let shown = |d: &[parax_eval::Derived]| d.iter().map(|d| (d.key.clone(), d.text.clone())).collect::<Vec<_>>();
+                assert_eq!(shown(&derived), shown(&ev.derived), "the JSON model derives other values");
+                json
+            })
+            .collect();
+        Set {
+            name,
+            text_bytes: texts.iter().map(|t| t.len() as u64).sum(),
+            json_bytes: jsons.iter().map(|t| t.len() as u64).sum(),
+            texts,
+            jsons,
+        }
+    }
+
+    fn parse(&self) {
+        for t in &self.texts {
+            black_box(parax_syntax::parse(black_box(t)));
+        }
+    }
+    fn parse_evaluate(&self) {
+        for t in &self.texts {
+            black_box(evaluate_source(black_box(t)));
+        }
+    }
+    fn json_deserialize(&self) {
+        for j in &self.jsons {
+            black_box(serde_json::from_str::<Case>(black_box(j)).expect("valid JSON"));
+        }
+    }
+    fn json_deserialize_evaluate(&self) {
+        for j in &self.jsons {
+            let case = serde_json::from_str::<Case>(black_box(j)).expect("valid JSON");
+            black_box(evaluate_case(&case));
+            black_box(case);
+        }
+    }
+}
+
+fn parsed(set: &Set) -> Vec<parax_syntax::Parsed> {
+    set.texts.iter().map(|t| parax_syntax::parse(t)).collect()
+}
+fn models(set: &Set) -> Vec<Case> {
+    set.jsons.iter().map(|j| serde_json::from_str(j).expect("valid JSON")).collect()
+}
+
+/// Per-iteration times of every sample criterion took, by benchmark, so that the
+/// closing table reuses criterion's own measurements instead of timing again.
+type Samples = RefCell<HashMap<&'static str, Vec<Duration>>>;
+
+/// Time `iters` calls of `f`, each after an untimed `setup`, and record the mean.
+fn timed<T>(samples: &Samples, key: &'static str, iters: u64, setup: impl Fn() -> T, f: impl Fn(&T)) -> Duration {
+    let mut total = Duration::ZERO;
+    for _ in 0..iters {
+        let input = setup();
+        let start = Instant::now();
+        f(&input);
+        total += start.elapsed();
+        drop(input);
+    }
+    samples.borrow_mut().entry(key).or_default().push(total / iters as u32);
+    total
+}
+
+const PARSE: &str = "parax parse";
+const FULL: &str = "parax parse+evaluate";
+const LOWER_COMPUTE: &str = "parax evaluate (pre-parsed)";
+const COMPUTE: &str = "model evaluate_case (pre-built)";
+const DE: &str = "json deserialize";
+const DE_FULL: &str = "json deserialize+evaluate_case";
+
+fn bench_set(c: &mut Criterion, set: &Set) -> HashMap<&'static str, Vec<Duration>> {
+    let samples = Samples::default();
+    let s = &samples;
+    let mut g = c.benchmark_group(set.name);
+    g.sample_size(10)
+        .warm_up_time(Duration::from_secs(1))
+        .measurement_time(Duration::from_secs(5))
+        .sampling_mode(SamplingMode::Flat);
+    g.throughput(Throughput::Bytes(set.text_bytes));
+    g.bench_function(PARSE, |b| b.iter_custom(|n| timed(s, PARSE, n, || (), |_| set.parse())));
+    g.bench_function(FULL, |b| b.iter_custom(|n| timed(s, FULL, n, || (), |_| set.parse_evaluate())));
+    g.bench_function(LOWER_COMPUTE, |b| {
+        b.iter_custom(|n| {
+            timed(s, LOWER_COMPUTE, n, || parsed(set), |trees| {
+                trees.iter().for_each(|p| drop(black_box(evaluate(p))))
+            })
+        })
+    });
+    g.bench_function(COMPUTE, |b| {
+        b.iter_custom(|n| {
+            timed(s, COMPUTE, n, || models(set), |cases| {
+                cases.iter().for_each(|c| drop(black_box(evaluate_case(c))))
+            })
+        })
+    });
+    g.throughput(Throughput::Bytes(set.json_bytes));
+    g.bench_function(DE, |b| b.iter_custom(|n| timed(s, DE, n, || (), |_| set.json_deserialize())));
+    g.bench_function(DE_FULL, |b| {
+        b.iter_custom(|n| timed(s, DE_FULL, n, || (), |_| set.json_deserialize_evaluate()))
+    });
+    g.finish();
+    samples.into_inner()
+}
+
+/// The side-by-side table, from the medians of the measured samples (the last
+/// `SAMPLES`: the ones before are criterion's warm-up).
+fn summary(set: &Set, samples: &HashMap<&'static str, Vec<Duration>>) {
+    let median = |key: &str| -> Option<Duration> {
+        let all = samples.get(key)?;
+        let mut t = all[all.len().saturating_sub(SAMPLES)..].to_vec();
+        t.sort();
+        Some(t[t.len() / 2])
+    };
+    let (Some(parse), Some(full), Some(lower_compute), Some(compute), Some(de), Some(de_full)) =
+        (median(PARSE), median(FULL), median(LOWER_COMPUTE), median(COMPUTE), median(DE), median(DE_FULL))
+    else {
+        return; // a filter left some benchmark out
+    };
+    let text_model = full.saturating_sub(compute);
+    let mbs = |bytes: u64, d: Duration| bytes as f64 / 1e6 / d.as_secs_f64();
+    let ratio = |a: Duration, b: Duration| a.as_secs_f64() / b.as_secs_f64();
+    println!(
+        "\n== {}: {} file(s), parax text {:.2} MB, JSON of the same facts {:.2} MB (medians of criterion's samples) ==",
+        set.name,
+        set.texts.len(),
+        set.text_bytes as f64 / 1e6,
+        set.json_bytes as f64 / 1e6
+    );
+    println!("{:<46} {:>10} {:>12} {:>12}", "step", "ms", "text MB/s", "own MB/s");
+    let row = |name: &str, d: Duration, own: u64| {
+        println!(
+            "{name:<46} {:>10.1} {:>12.1} {:>12.1}",
+            d.as_secs_f64() * 1e3,
+            mbs(set.text_bytes, d),
+            mbs(own, d)
+        );
+    };
+    row("parax parse", parse, set.text_bytes);
+    row("parax evaluate (pre-parsed: lower+compute)", lower_compute, set.text_bytes);
+    row("parax parse+evaluate", full, set.text_bytes);
+    row("  of which text → model (minus compute)", text_model, set.text_bytes);
+    row("model evaluate_case (compute alone)", compute, set.text_bytes);
+    row("json deserialize", de, set.json_bytes);
+    row("json deserialize+evaluate_case", de_full, set.json_bytes);
+    println!("ratios (parax time / serde_json time; target ≤ 4×, stretch ≤ 3×):");
+    println!("  text → model + derived  vs JSON → model + derived: {:.2}×", ratio(full, de_full));
+    println!("  text → model (parse+lower) vs JSON → model:        {:.2}×", ratio(text_model, de));
+    println!("  parse alone               vs JSON deserialize:     {:.2}×", ratio(parse, de));
+    println!("  parse+evaluate            vs JSON deserialize:     {:.2}×", ratio(full, de));
+}
+
+const SAMPLES: usize = 10;
+
+fn main() {
+    let args: Vec<String> = std::env::args().collect();
+    if args.iter().any(|a| a == "--list") {
+        return;
+    }
+    let corpus = Set::new("corpus-10k", corpus::corpus(corpus::CORPUS_FILES));
+    let big = Set::new("file-5MB", vec![corpus::big_file(corpus::BIG_FILE_BYTES)]);
+    corpus::assert_sample_clean(&corpus.texts, 50, Some(&big.texts[0]));
+
+    let mut c = Criterion::default().configure_from_args();
+    let corpus_samples = bench_set(&mut c, &corpus);
+    let big_samples = bench_set(&mut c, &big);
+    c.final_summary();
+    // `cargo test --benches` runs each benchmark once (`--test`); no table there.
+    if !args.iter().any(|a| a == "--test") {
+        summary(&corpus, &corpus_samples);
+        summary(&big, &big_samples);
+    }
+}
