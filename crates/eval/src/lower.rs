@@ -9,7 +9,7 @@ use crate::read::Reader;
 use crate::schema;
 use crate::units::{self as u};
 use parax_optics::keratometry::{keratometric_radius, KERATOMETRIC_INDEX};
-use parax_syntax::{Block, BlockKind, LineKind, Parsed, Span, Statement, Symbol, Value, ValueKind};
+use parax_syntax::{Block, BlockKind, LineKind, Parsed, Span, Symbol, Value, ValueKind};
 
 /// Read every block of `p` into a [`Case`], appending diagnostics to `diags`.
 pub fn lower(p: &Parsed, diags: &mut Vec<Diagnostic>) -> Case {
@@ -42,7 +42,7 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
                 case.info.title = r.text_value("the case title", form);
             }
             r.finish(form);
-            Target::Case
+            Target::Case(None)
         }
         BlockKind::Eye => {
             let side = side(&mut r, form);
@@ -100,17 +100,57 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
                 expects: Vec::new(),
             })
         }
-        BlockKind::SpectacleLens | BlockKind::ContactLens => {
-            side(&mut r, form);
+        BlockKind::SpectacleLens => {
+            let side = side(&mut r, form);
             r.finish(form);
-            not_evaluated(block.kind, header_span, diags);
-            Target::Later
+            match side {
+                Some(side) => Target::Spectacle(Box::new(SpectacleLens {
+                    side,
+                    span: header_span,
+                    power: None,
+                    add: None,
+                    prism: None,
+                    index: None,
+                    base_curve: None,
+                    centre_thickness: None,
+                    edge_thickness: None,
+                    blank_diameter: None,
+                    measured: None,
+                    expects: Vec::new(),
+                })),
+                None => Target::Skip,
+            }
+        }
+        BlockKind::ContactLens => {
+            let side = side(&mut r, form);
+            r.finish(form);
+            match side {
+                Some(side) => Target::Contact(ContactLens {
+                    side,
+                    span: header_span,
+                    base_curve: None,
+                    kind: None,
+                    expects: Vec::new(),
+                }),
+                None => Target::Skip,
+            }
         }
         BlockKind::ModelEye => {
-            r.text_value("the model name", form);
+            let name = if r.at_end() {
+                r.missing::<()>("the model name", form);
+                format!("model-{}", case.model_eyes.len() + 1)
+            } else {
+                r.text_value("the model name", form).unwrap_or_default()
+            };
             r.finish(form);
-            not_evaluated(block.kind, header_span, diags);
-            Target::Later
+            Target::Model(ModelEye {
+                name,
+                span: header_span,
+                from: None,
+                axial_length: None,
+                surfaces: Vec::new(),
+                expects: Vec::new(),
+            })
         }
     };
     // Shape errors on the header line are header errors.
@@ -146,40 +186,34 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
             seen.push(kw);
         }
         let mut r = Reader::new(p, statement, diags);
-        lower_statement(&mut r, &mut target, kw, spec.form, span, statement);
+        lower_statement(&mut r, &mut target, kw, spec.form, span);
     }
     match target {
         Target::Eye(eye) => case.eyes.push(*eye),
         Target::Frame(f) => case.frames.push(f),
         Target::System(s) => case.systems.push(s),
-        Target::Case | Target::Skip | Target::Later => {}
+        Target::Spectacle(l) => case.spectacle_lenses.push(*l),
+        Target::Contact(c) => case.contact_lenses.push(c),
+        Target::Model(m) => case.model_eyes.push(m),
+        Target::Case(age) => {
+            if age.is_some() {
+                case.info.age = age;
+            }
+        }
+        Target::Skip => {}
     }
 }
 
 enum Target {
-    Case,
+    Case(Option<At<f64>>),
     Eye(Box<Eye>),
     Frame(Frame),
     System(System),
-    /// Blocks checked for notation, not evaluated in this version.
-    Later,
+    Spectacle(Box<SpectacleLens>),
+    Contact(ContactLens),
+    Model(ModelEye),
     /// A block whose header could not be read.
     Skip,
-}
-
-fn not_evaluated(kind: BlockKind, span: Span, diags: &mut Vec<Diagnostic>) {
-    diags.push(
-        Diagnostic::new(
-            codes::NOT_EVALUATED,
-            Severity::Info,
-            span,
-            format!(
-                "this version of parax checks the notation of `{}` blocks but computes nothing from them yet",
-                kind.keyword()
-            ),
-        )
-        .hint("units and values are still checked; derived values for this block come in a later version"),
-    );
 }
 
 fn side(r: &mut Reader<'_>, form: &str) -> Option<Side> {
@@ -221,49 +255,37 @@ fn at<T>(value: Option<T>, span: Span) -> Option<At<T>> {
     value.map(|value| At { value, span })
 }
 
-fn lower_statement(
-    r: &mut Reader<'_>,
-    target: &mut Target,
-    kw: &str,
-    form: &str,
-    span: Span,
-    statement: &Statement,
-) {
+fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str, span: Span) {
     if kw == "expect" {
         let e = read_expect(r, form, span);
         match target {
             Target::Eye(eye) => eye.expects.extend(e),
             Target::Frame(f) => f.expects.extend(e),
             Target::System(s) => s.expects.extend(e),
-            Target::Later => {
-                r.diags.push(Diagnostic::new(
-                    codes::EXPECT_UNAVAILABLE,
-                    Severity::Warning,
-                    span,
-                    "this block computes nothing yet in this version, so the recorded result is not checked",
-                ));
-            }
-            Target::Case | Target::Skip => {}
+            Target::Spectacle(l) => l.expects.extend(e),
+            Target::Contact(c) => c.expects.extend(e),
+            Target::Model(m) => m.expects.extend(e),
+            Target::Case(_) | Target::Skip => {}
         }
         return;
     }
     if kw == "note" {
         let t = r.text_value("the note", form);
-        if let (Target::Case, Some(t)) = (&*target, t) {
+        if let (Target::Case(_), Some(t)) = (&*target, t) {
             let _ = t;
         }
         r.finish(form);
         return;
     }
     match target {
-        Target::Case => {
+        Target::Case(age) => {
             // Case facts are recorded for reports; only their form is checked here.
             match kw {
                 "date" => {
                     r.date(form);
                 }
                 "age" => {
-                    r.quantity(&u::AGE, form);
+                    *age = at(r.quantity(&u::AGE, form), span);
                 }
                 "tag" => {
                     r.word("a tag", form);
@@ -396,10 +418,69 @@ fn lower_statement(
                 }
             }
         }
-        Target::Later => {
-            // Keep the values' units honest even where nothing is computed yet.
-            check_units_only(r, statement);
-        }
+        Target::Spectacle(l) => match kw {
+            "power" => l.power = at(r.rx(form), span),
+            "measured" => l.measured = at(r.rx(form), span),
+            "add" => l.add = at(r.quantity(&u::ADD, form), span),
+            "prism" => {
+                let amount = r.quantity(&u::PRISM, form);
+                let base = r.word_of(&["BU", "BD", "BI", "BO"], "a base direction", form);
+                if let (Some(amount), Some(base)) = (amount, base) {
+                    l.prism = at(
+                        Some(PrismRx {
+                            amount,
+                            base: base.to_owned(),
+                        }),
+                        span,
+                    );
+                }
+            }
+            "index" => l.index = at(r.quantity(&u::INDEX, form), span),
+            "material" => {
+                r.text_value("the material name", form);
+            }
+            "base-curve" => l.base_curve = at(r.quantity(&u::BASE_CURVE_POWER, form), span),
+            "centre-thickness" => {
+                l.centre_thickness = at(r.quantity(&u::LENS_THICKNESS, form), span)
+            }
+            "edge-thickness" => l.edge_thickness = at(r.quantity(&u::LENS_THICKNESS, form), span),
+            _ => l.blank_diameter = at(r.quantity(&u::DIAMETER, form), span),
+        },
+        Target::Contact(c) => match kw {
+            "base-curve" => c.base_curve = at(r.quantity(&u::CL_BASE_CURVE, form), span),
+            "kind" => {
+                c.kind = at(
+                    r.word_of(&["rigid", "soft"], "a lens type", form)
+                        .map(str::to_owned),
+                    span,
+                )
+            }
+            "power" => {
+                r.rx(form);
+            }
+            _ => {
+                r.quantity(&u::DIAMETER, form);
+            }
+        },
+        Target::Model(m) => match kw {
+            "from" => {
+                m.from = at(
+                    r.word_of(
+                        &["gullstrand", "le-grand", "emsley"],
+                        "a schematic eye",
+                        form,
+                    )
+                    .map(str::to_owned),
+                    span,
+                )
+            }
+            "axial-length" => m.axial_length = at(r.quantity(&u::AXIAL_LENGTH, form), span),
+            _ => {
+                if let Some(o) = read_surface_override(r, form) {
+                    m.surfaces.push(At { value: o, span });
+                }
+            }
+        },
         Target::Skip => {
             r.rest();
         }
@@ -407,21 +488,28 @@ fn lower_statement(
     r.finish(form);
 }
 
-fn check_units_only(r: &mut Reader<'_>, statement: &Statement) {
-    for v in &statement.values {
-        if let ValueKind::Number { unit: Some(us), .. } = v.kind {
-            let t = r.text(us);
-            if u::unit_of(t).is_none() {
-                r.diags.push(Diagnostic::new(
-                    codes::WRONG_UNIT,
-                    Severity::Error,
-                    us,
-                    format!("`{t}` is not a unit of the notation"),
-                ));
-            }
-        }
+fn read_surface_override(r: &mut Reader<'_>, form: &str) -> Option<SurfaceOverride> {
+    let n = r.quantity(&u::LEVEL, form)?;
+    if n < 1.0 || n.fract() != 0.0 {
+        return r.missing("a surface number 1, 2, 3, …", form);
     }
-    r.rest();
+    if !r.word_if("radius") {
+        return r.missing("`radius RADIUS mm`", form);
+    }
+    let radius = r.quantity(&u::SURFACE_RADIUS, form)?;
+    let mut o = SurfaceOverride {
+        number: n as usize,
+        radius,
+        index: None,
+        distance: None,
+    };
+    if r.word_if("index") {
+        o.index = Some(r.quantity(&u::INDEX, form)?);
+    }
+    if r.word_if("distance") {
+        o.distance = Some(r.quantity(&u::MODEL_DISTANCE, form)?);
+    }
+    Some(o)
 }
 
 fn read_keratometry(r: &mut Reader<'_>, form: &str) -> Option<[KMeridian; 2]> {

@@ -101,7 +101,13 @@ pub fn material_minimums(index: f64) -> (f64, f64) {
 /// Spectacle magnification `SM = 1/(1 − (t/n)F1) · 1/(1 − h·Fv)` with `h` the
 /// distance from the back vertex to the entrance pupil (Fannin & Grosvenor,
 /// Clinical Optics). Returns `(shape, power, total)`.
-pub fn spectacle_magnification(f1: f64, t_m: f64, index: f64, bvp: f64, h_m: f64) -> (f64, f64, f64) {
+pub fn spectacle_magnification(
+    f1: f64,
+    t_m: f64,
+    index: f64,
+    bvp: f64,
+    h_m: f64,
+) -> (f64, f64, f64) {
     let shape = 1.0 / (1.0 - t_m / index * f1);
     let power = 1.0 / (1.0 - h_m * bvp);
     (shape, power, shape * power)
