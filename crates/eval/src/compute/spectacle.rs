@@ -474,7 +474,7 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
             text: if all { "pass" } else { "fail" }.into(),
         },
         m.span,
-        "every checked component within its tolerance",
+        "every component compared is within its tolerance",
         format!(
             "ordered {}, measured {}",
             sphcyl(&ordered).display(),
