@@ -73,7 +73,12 @@ fn schematic_eyes_agree_with_sympy() {
     let mut s = Schematic::EmsleyReduced.surfaces();
     model_eye::with_axial_length(&mut s, 0.024);
     let e = model_eye::evaluate(&s);
-    close(e.power, num(&r, &["reduced_24mm", "power"]), 1e-9, "reduced power");
+    close(
+        e.power,
+        num(&r, &["reduced_24mm", "power"]),
+        1e-9,
+        "reduced power",
+    );
     close(
         e.ocular_refraction,
         num(&r, &["reduced_24mm", "ocular_refraction"]),
@@ -95,7 +100,12 @@ fn two_thin_lenses_agree_with_sympy() {
     ]);
     let p = system_powers(&m);
     // [C] SymPy ThinLens/FreeSpace: F 6.000, BVP 12.000 (CAPABILITIES §4); tol 1e-12
-    close(p.equivalent, num(&r, &["two_lens", "power"]), 1e-12, "power");
+    close(
+        p.equivalent,
+        num(&r, &["two_lens", "power"]),
+        1e-12,
+        "power",
+    );
     close(
         p.back_vertex,
         num(&r, &["two_lens", "back_vertex_power"]),
