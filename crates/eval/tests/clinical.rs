@@ -175,7 +175,7 @@ fn verification_against_ansi_z80_1_2015() {
         .iter()
         .find(|d| d.code == "P0605")
         .expect("P0605");
-    assert!(d.message.contains("87.0000 to 93.0000"), "{}", d.message);
+    assert!(d.message.contains("87.00 to 93.00"), "{}", d.message);
 }
 
 #[test]

@@ -430,9 +430,9 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
         let pass = c.passes();
         all &= pass;
         let band = format!(
-            "{} to {} {unit}",
-            n4(c.ordered - c.tolerance),
-            n4(c.ordered + c.tolerance)
+            "{:.2} to {:.2} {unit}",
+            c.ordered - c.tolerance,
+            c.ordered + c.tolerance
         );
         out.push(
             name,
@@ -457,8 +457,8 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
                     Severity::Warning,
                     m.span,
                     format!(
-                        "{what} out of tolerance: measured {}, allowed {band} ({})",
-                        n4(c.measured),
+                        "{what} out of tolerance: measured {:.2}, allowed {band} ({})",
+                        c.measured,
                         verify::STANDARD
                     ),
                 )
