@@ -334,12 +334,10 @@ fn compare(d: &Derived, e: &Expect) -> Result<(), String> {
                 .cloned()
                 .collect::<Vec<_>>()
                 .join(" ");
-            if !label.is_empty() {
-                if !label.eq_ignore_ascii_case(from) {
-                    return Err(format!(
-                        "the computed position is measured from {from}, not {label}"
-                    ));
-                }
+            if !label.is_empty() && !label.eq_ignore_ascii_case(from) {
+                return Err(format!(
+                    "the computed position is measured from {from}, not {label}"
+                ));
             }
             within(*metres, sign * nums[0].0, tol(0))
         }
