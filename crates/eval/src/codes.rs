@@ -51,4 +51,5 @@ codes! {
     ANISOMETROPIA = "P0607", "anisometropia", "The eyes differ by 2.00 D or more in spherical equivalent or a principal meridian; prism imbalance and aniseikonia deserve attention.";
     REFRACTION_CHANGE = "P0608", "refraction change between visits", "The refraction changed by 0.50 D or more per year (blur strength of the change, per year) between two dated visits.";
     INPUTS_INCOMPLETE = "P0609", "inputs incomplete", "A contact-lens or model-eye block lacks an input that its values need (a refraction with its vertex distance, keratometry, a schematic eye to start from, a surface that exists); the message names it.";
+    IOL_CAUTION = "P0610", "intraocular lens power", "IOL powers were computed: biometry, constants and the choice of lens belong to the surgeon; a warning when refractive surgery is recorded, since neither formula is valid after it without adjustment.";
 }

@@ -50,6 +50,10 @@ fn possible_names(block: &str) -> &'static [&'static str] {
             "change-years",
             "change-m-per-year",
             "change-blur-per-year",
+            "iol-acd-estimate",
+            "iol-power-srkt",
+            "iol-power-vergence",
+            "iol-predicted-refraction",
         ]
     } else if block.starts_with("system.") {
         &[

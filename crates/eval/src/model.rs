@@ -97,6 +97,18 @@ pub struct Eye {
     pub pd: Option<At<f64>>,
     /// Age, years.
     pub age: Option<At<f64>>,
+    /// SRK/T A constant.
+    #[serde(default)]
+    pub iol_constant: Option<At<f64>>,
+    /// Target refraction after surgery, D.
+    #[serde(default)]
+    pub iol_target: Option<At<f64>>,
+    /// Effective lens position, metres.
+    #[serde(default)]
+    pub iol_elp: Option<At<f64>>,
+    /// A chosen IOL power, D.
+    #[serde(default)]
+    pub iol_power: Option<At<f64>>,
     /// Refractive-surgery history, as recorded.
     pub refractive_surgery: Option<At<String>>,
     /// `expect` lines.

@@ -83,9 +83,29 @@ const EYE: &[KeywordSpec] = &[
         "LENGTH mm",
         "central corneal thickness, for total corneal power",
     ),
-    later(kw("axial-length", "LENGTH mm", "axial length of the eye")),
+    kw("axial-length", "LENGTH mm", "axial length of the eye"),
     kw("pd", "LENGTH mm", "monocular pupillary distance"),
     kw("age", "N y", "age, when it differs per eye or visit"),
+    kw(
+        "iol-constant",
+        "N",
+        "SRK/T A constant of the intraocular lens considered",
+    ),
+    kw(
+        "iol-target",
+        "POWER",
+        "target refraction after surgery (default 0)",
+    ),
+    kw(
+        "iol-elp",
+        "LENGTH mm",
+        "effective lens position, for the thin-lens vergence formula",
+    ),
+    kw(
+        "iol-power",
+        "POWER",
+        "power of a chosen intraocular lens, for its predicted refraction",
+    ),
     kw(
         "refractive-surgery",
         "\"TEXT\"",

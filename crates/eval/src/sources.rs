@@ -76,3 +76,11 @@ over-refraction and follow-up belong to a licensed practitioner under local rule
 /// Caution attached to model-eye refraction.
 pub const CAUTION_MODEL: &str = "A schematic eye is a model, not the patient: refraction \
 predicted from axial length is an estimate for study, not a prescription.";
+
+source!(SRKT, "S", "SRK/T: Retzlaff, Sanders & Kraff, J Cataract Refract Surg 1990;16:333-340 (erratum p. 528); target terms with minus signs");
+source!(IOL_VERGENCE, "M", "thin-lens vergence IOL formula P = n/(AL − ELP) − n/(n/(K + Z) − ELP), Z = R/(1 − V·R), n 1.336");
+
+/// Caution attached to every intraocular lens value.
+pub const CAUTION_IOL: &str = "IOL power is for licensed surgical practice only: biometry, lens \
+constants and the choice of lens belong to the surgeon, with measured biometry and optimised constants. \
+Not valid after corneal refractive surgery without a validated adjustment.";

@@ -275,3 +275,31 @@ fn model_eyes_and_overrides() {
     let bad = eval("model-eye \"x\"\n  from emsley\n  surface 2 radius 6 mm\n");
     assert!(bad.has_errors());
 }
+
+#[test]
+fn intraocular_lens_power() {
+    let src = "eye right\n  axial-length 23.5 mm\n  keratometry 44.00 D @ 180, 44.00 D @ 90\n  iol-constant 118.4\n  iol-elp 5.0 mm\n";
+    let ev = eval(src);
+    // [C] CAPABILITIES §12, SRK/T (Retzlaff, Sanders & Kraff 1990): L 23.5, K 44.00, A 118.4 -> 20.041 D; tol 2e-3
+    close(num(&ev, "eye.right.iol-power-srkt"), 20.041, 2e-3);
+    // [C] CAPABILITIES §12 vergence formula: ELP 5.0 -> 19.542 D; tol 2e-3
+    close(num(&ev, "eye.right.iol-power-vergence"), 19.542, 2e-3);
+    let d = ev
+        .diagnostics
+        .iter()
+        .find(|d| d.code == "P0610")
+        .expect("P0610");
+    assert_eq!(d.severity, parax_eval::Severity::Info);
+    // [C] myopic target -0.50 -> 20.759 D; and the predicted refraction of that lens is the target; tol 2e-3
+    let ev = eval(&format!("{src}  iol-target -0.50\n  iol-power 20.759\n"));
+    close(num(&ev, "eye.right.iol-power-srkt"), 20.759, 2e-3);
+    close(num(&ev, "eye.right.iol-predicted-refraction"), -0.5, 2e-3);
+    // after refractive surgery the note becomes a warning
+    let ev = eval(&format!("{src}  refractive-surgery \"LASIK 2012\"\n"));
+    let d = ev
+        .diagnostics
+        .iter()
+        .find(|d| d.code == "P0610")
+        .expect("P0610");
+    assert_eq!(d.severity, parax_eval::Severity::Warning);
+}

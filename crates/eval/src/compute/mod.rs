@@ -3,6 +3,7 @@
 
 mod contact;
 mod eye;
+mod iol;
 mod model_eye;
 mod near;
 mod spectacle;
@@ -21,6 +22,7 @@ pub fn compute(case: &Case, derived: &mut Vec<Derived>, diags: &mut Vec<Diagnost
         let mut out = Out::new(eye::block_id(e), derived);
         eye::compute(case, e, &mut out, diags);
         near::compute(case, e, &mut out);
+        iol::compute(e, &mut out, diags);
         visits::compute(case, e, &mut out, diags);
     }
     for s in &case.systems {
