@@ -359,38 +359,40 @@ fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str
             };
             *slot = v;
         }
-        Target::System(s) => {
-            match kw {
-                "object" => {
-                    if r.word_if("at") {
-                        if r.word_if("infinity") {
-                            s.object = At {
-                                value: ObjectAt::Infinity,
-                                span,
+        Target::System(s) => match kw {
+            "object" => {
+                if r.word_if("at") {
+                    if r.word_if("infinity") {
+                        s.object = At {
+                            value: ObjectAt::Infinity,
+                            span,
+                        };
+                    } else {
+                        r.missing::<()>("`infinity`", form);
+                    }
+                } else if let Some(d) = r.quantity(&u::OBJECT_DISTANCE, form) {
+                    if r.word_if("before") {
+                        if let Some((label, label_span)) = r.word("a lens label", form) {
+                            let value = ObjectAt::Before {
+                                distance: d,
+                                label: label.to_owned(),
+                                label_span,
                             };
-                        } else {
-                            r.missing::<()>("`infinity`", form);
+                            s.object = At { value, span };
                         }
-                    } else if let Some(d) = r.quantity(&u::OBJECT_DISTANCE, form) {
-                        if r.word_if("before") {
-                            if let Some((label, label_span)) = r.word("a lens label", form) {
-                                let value = ObjectAt::Before {
-                                    distance: d,
-                                    label: label.to_owned(),
-                                    label_span,
-                                };
-                                s.object = At { value, span };
-                            }
-                        } else {
-                            r.missing::<()>("`before LABEL`", form);
-                        }
+                    } else {
+                        r.missing::<()>("`before LABEL`", form);
                     }
                 }
-                "lens" => {
-                    let label = r.word("a lens label", form);
-                    let power = r.quantity(&u::LENS_POWER, form);
-                    if let (Some((label, lspan)), Some(power)) = (label, power) {
-                        if s.elements.iter().any(|e| matches!(&e.value, SystemElement::Lens { label: l, .. } if l == label)) {
+            }
+            "lens" => {
+                let label = r.word("a lens label", form);
+                let power = r.quantity(&u::LENS_POWER, form);
+                if let (Some((label, lspan)), Some(power)) = (label, power) {
+                    if s.elements
+                        .iter()
+                        .any(|e| element_label(&e.value) == Some(label))
+                    {
                         r.diags.push(Diagnostic::new(
                             codes::SYSTEM_LAYOUT,
                             Severity::Error,
@@ -398,34 +400,65 @@ fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str
                             format!("the label `{label}` is already used in this system"),
                         ));
                     }
-                        s.elements.push(At {
-                            value: SystemElement::Lens {
-                                label: label.to_owned(),
-                                power,
-                            },
-                            span,
-                        });
-                    }
-                }
-                "gap" => {
-                    let length = r.quantity(&u::GAP, form);
-                    let index = if r.word_if("index") {
-                        r.quantity(&u::INDEX, form)
-                    } else {
-                        Some(1.0)
-                    };
-                    if let (Some(length), Some(index)) = (length, index) {
-                        s.elements.push(At {
-                            value: SystemElement::Gap { length, index },
-                            span,
-                        });
-                    }
-                }
-                _ => {
-                    r.rest();
+                    s.elements.push(At {
+                        value: SystemElement::Lens {
+                            label: label.to_owned(),
+                            power,
+                        },
+                        span,
+                    });
                 }
             }
-        }
+            "surface" => {
+                let label = r.word("a surface label", form);
+                let radius = r.quantity(&u::SURFACE_RADIUS, form);
+                let index = if r.word_if("index") {
+                    r.quantity(&u::INDEX, form)
+                } else {
+                    r.missing("`index N` (the index after the surface)", form)
+                };
+                if let (Some((label, lspan)), Some(radius), Some(index_after)) =
+                    (label, radius, index)
+                {
+                    if s.elements
+                        .iter()
+                        .any(|e| element_label(&e.value) == Some(label))
+                    {
+                        r.diags.push(Diagnostic::new(
+                            codes::SYSTEM_LAYOUT,
+                            Severity::Error,
+                            lspan,
+                            format!("the label `{label}` is already used in this system"),
+                        ));
+                    }
+                    s.elements.push(At {
+                        value: SystemElement::Surface {
+                            label: label.to_owned(),
+                            radius,
+                            index_after,
+                        },
+                        span,
+                    });
+                }
+            }
+            "gap" => {
+                let length = r.quantity(&u::GAP, form);
+                let index = if r.word_if("index") {
+                    r.quantity(&u::INDEX, form)
+                } else {
+                    Some(1.0)
+                };
+                if let (Some(length), Some(index)) = (length, index) {
+                    s.elements.push(At {
+                        value: SystemElement::Gap { length, index },
+                        span,
+                    });
+                }
+            }
+            _ => {
+                r.rest();
+            }
+        },
         Target::Spectacle(l) => match kw {
             "power" => l.power = at(r.rx(form), span),
             "measured" => l.measured = at(r.rx(form), span),
@@ -494,6 +527,13 @@ fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str
         }
     }
     r.finish(form);
+}
+
+fn element_label(e: &SystemElement) -> Option<&str> {
+    match e {
+        SystemElement::Lens { label, .. } | SystemElement::Surface { label, .. } => Some(label),
+        SystemElement::Gap { .. } => None,
+    }
 }
 
 fn read_surface_override(r: &mut Reader<'_>, form: &str) -> Option<SurfaceOverride> {

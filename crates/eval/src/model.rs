@@ -249,6 +249,15 @@ pub enum SystemElement {
         /// Power, D.
         power: f64,
     },
+    /// `surface LABEL RADIUS index N`: a refracting surface.
+    Surface {
+        /// The label.
+        label: String,
+        /// Radius of curvature, metres (positive: centre to the right).
+        radius: f64,
+        /// Index after the surface.
+        index_after: f64,
+    },
     /// `gap LENGTH [index N]`.
     Gap {
         /// Metres.

@@ -195,11 +195,11 @@ const SYSTEM: &[KeywordSpec] = &[
         "LENGTH [index N]",
         "distance to the next element, in air unless an index is given",
     )),
-    many(later(kw(
+    many(kw(
         "surface",
         "LABEL RADIUS mm index N",
         "a refracting surface",
-    ))),
+    )),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,
 ];

@@ -303,3 +303,15 @@ fn intraocular_lens_power() {
         .expect("P0610");
     assert_eq!(d.severity, parax_eval::Severity::Warning);
 }
+
+#[test]
+fn system_with_surfaces_is_a_thick_lens() {
+    let ev = eval("system \"t\"\n  surface S1 62.5 mm index 1.5\n  gap 6 mm index 1.5\n  surface S2 250 mm index 1\n");
+    // [C] CAPABILITIES §4: thick lens F1 +8, F2 −2, t 6 mm, n 1.5 -> F 6.0640, BVP 6.2645, FVP 6.0159; tol 1e-4
+    close(num(&ev, "system.t.equivalent-power"), 6.0640, 1e-4);
+    close(num(&ev, "system.t.back-vertex-power"), 6.2645, 1e-4);
+    close(num(&ev, "system.t.front-vertex-power"), 6.0159, 1e-4);
+    // [C] surface power (n' − n)/r: S2 = (1 − 1.5)/0.25 = −2: the vergence leaving S2 is 8.2645 − 2; tol 1e-4
+    close(num(&ev, "system.t.S2.vergence-out"), 6.2645, 1e-4);
+    assert!(!ev.has_errors(), "{:#?}", ev.diagnostics);
+}
