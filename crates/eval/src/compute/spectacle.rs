@@ -78,6 +78,8 @@ fn nasal_offset(case: &Case, f: &Frame, l: &SpectacleLens) -> Option<f64> {
 struct Prisms {
     distance: Option<(Prism, String)>,
     reading: Option<(Prism, String)>,
+    /// The horizontal offset of the reading point is known (centre distance and PD).
+    reading_horizontal: bool,
 }
 
 fn prisms(case: &Case, l: &SpectacleLens) -> Prisms {
@@ -85,6 +87,7 @@ fn prisms(case: &Case, l: &SpectacleLens) -> Prisms {
         return Prisms {
             distance: None,
             reading: None,
+            reading_horizontal: false,
         };
     };
     let eye = side_eye(l.side);
@@ -102,7 +105,7 @@ fn prisms(case: &Case, l: &SpectacleLens) -> Prisms {
     });
     let reading = f.reading_drop.as_ref().map(|drop| {
         let inset = f.near_inset.as_ref().map_or(0.0, |i| i.value);
-        let c = nasal.unwrap_or(0.0) + if nasal.is_some() { inset } else { 0.0 };
+        let c = nasal.map_or(0.0, |n| n + inset);
         let p = with_prescribed(prentice(&rx, eye, c, -drop.value), l);
         (
             p,
@@ -114,7 +117,11 @@ fn prisms(case: &Case, l: &SpectacleLens) -> Prisms {
             ),
         )
     });
-    Prisms { distance, reading }
+    Prisms {
+        distance,
+        reading,
+        reading_horizontal: nasal.is_some(),
+    }
 }
 
 fn vertical(p: &Prism) -> V {
@@ -315,15 +322,17 @@ pub(super) fn compute(
             why.clone(),
             src::PRENTICE,
         );
-        out.push(
-            "reading-prism-horizontal",
-            "horizontal prism at the reading point",
-            horizontal(r.base_in),
-            l.span,
-            "P = −F·c (Prentice, power matrix; c in cm), plus any prescribed prism",
-            why.clone(),
-            src::PRENTICE,
-        );
+        if p.reading_horizontal {
+            out.push(
+                "reading-prism-horizontal",
+                "horizontal prism at the reading point",
+                horizontal(r.base_in),
+                l.span,
+                "P = −F·c (Prentice, power matrix; c in cm), plus any prescribed prism",
+                why.clone(),
+                src::PRENTICE,
+            );
+        }
     }
     thickness(l, out, diags);
     if let Some((sm, why)) = magnification(case, l) {
