@@ -46,7 +46,7 @@ codes! {
     VERTICAL_IMBALANCE = "P0602", "vertical prism imbalance", "The vertical prism difference between the eyes at the reading point exceeds about 1Δ; above about 1.5Δ slab-off may be worth considering.";
     HORIZONTAL_PRISM = "P0603", "horizontal prism", "The net horizontal prism from decentration exceeds about 3Δ.";
     THIN_LENS = "P0604", "below material minimum", "A recorded thickness is below the usual minimum for the material (minus centre, or plus edge).";
-    OUT_OF_TOLERANCE = "P0605", "lens out of tolerance", "The measured lens differs from the order by more than ANSI Z80.1-2015 allows for that component; the message shows the allowed band.";
+    OUT_OF_TOLERANCE = "P0605", "lens out of tolerance", "The measured lens differs from the order (power, add or prism) by more than ANSI Z80.1-2015 allows for that component; the message shows the allowed band.";
     RESIDUAL_ASTIGMATISM = "P0606", "residual astigmatism", "Under a spherical rigid lens the residual astigmatism is 0.75 D or more; a toric design may be needed.";
     ANISOMETROPIA = "P0607", "anisometropia", "The eyes differ by 2.00 D or more in spherical equivalent or a principal meridian; prism imbalance and aniseikonia deserve attention.";
     REFRACTION_CHANGE = "P0608", "refraction change between visits", "The refraction changed by 0.50 D or more per year (blur strength of the change, per year) between two dated visits.";

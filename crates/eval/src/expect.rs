@@ -78,6 +78,8 @@ fn possible_names(block: &str) -> &'static [&'static str] {
             "check-sphere",
             "check-cylinder",
             "check-axis",
+            "check-add",
+            "check-prism",
             "verification",
         ]
     } else if block == "frame" || block.starts_with("frame.") {

@@ -120,6 +120,8 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
                     edge_thickness: None,
                     blank_diameter: None,
                     measured: None,
+                    measured_add: None,
+                    measured_prism: None,
                     expects: Vec::new(),
                 })),
                 None => Target::Skip,
@@ -463,19 +465,9 @@ fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str
             "power" => l.power = at(r.rx(form), span),
             "measured" => l.measured = at(r.rx(form), span),
             "add" => l.add = at(r.quantity(&u::ADD, form), span),
-            "prism" => {
-                let amount = r.quantity(&u::PRISM, form);
-                let base = r.word_of(&["BU", "BD", "BI", "BO"], "a base direction", form);
-                if let (Some(amount), Some(base)) = (amount, base) {
-                    l.prism = at(
-                        Some(PrismRx {
-                            amount,
-                            base: base.to_owned(),
-                        }),
-                        span,
-                    );
-                }
-            }
+            "prism" => l.prism = at(read_prism(r, form), span),
+            "measured-prism" => l.measured_prism = at(read_prism(r, form), span),
+            "measured-add" => l.measured_add = at(r.quantity(&u::ADD, form), span),
             "index" => l.index = at(r.quantity(&u::INDEX, form), span),
             "material" => {
                 r.text_value("the material name", form);
@@ -527,6 +519,15 @@ fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str
         }
     }
     r.finish(form);
+}
+
+fn read_prism(r: &mut Reader<'_>, form: &str) -> Option<PrismRx> {
+    let amount = r.quantity(&u::PRISM, form);
+    let base = r.word_of(&["BU", "BD", "BI", "BO"], "a base direction", form);
+    Some(PrismRx {
+        amount: amount?,
+        base: base?.to_owned(),
+    })
 }
 
 fn element_label(e: &SystemElement) -> Option<&str> {

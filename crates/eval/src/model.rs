@@ -174,6 +174,12 @@ pub struct SpectacleLens {
     pub blank_diameter: Option<At<f64>>,
     /// Focimeter reading of the received lens.
     pub measured: Option<At<Rx>>,
+    /// Addition measured on the received lens, D.
+    #[serde(default)]
+    pub measured_add: Option<At<f64>>,
+    /// Prism measured at the reference point of the received lens.
+    #[serde(default)]
+    pub measured_prism: Option<At<PrismRx>>,
     /// `expect` lines.
     pub expects: Vec<Expect>,
 }

@@ -149,7 +149,7 @@ const FRAME: &[KeywordSpec] = &[
 
 const SPECTACLE_LENS: &[KeywordSpec] = &[
     kw("power", "SPHERE [/ CYLINDER x AXIS]", "the power ordered"),
-    later(kw("add", "POWER", "the addition ordered")),
+    kw("add", "POWER", "the addition ordered"),
     kw(
         "prism",
         "AMOUNT Δ BASE",
@@ -165,6 +165,16 @@ const SPECTACLE_LENS: &[KeywordSpec] = &[
         "measured",
         "SPHERE [/ CYLINDER x AXIS]",
         "focimeter reading of the received lens",
+    ),
+    kw(
+        "measured-add",
+        "POWER",
+        "addition measured on the received lens",
+    ),
+    kw(
+        "measured-prism",
+        "AMOUNT Δ BASE",
+        "prism measured at the received lens's reference point",
     ),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,

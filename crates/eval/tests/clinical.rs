@@ -315,3 +315,31 @@ fn system_with_surfaces_is_a_thick_lens() {
     close(num(&ev, "system.t.S2.vergence-out"), 6.2645, 1e-4);
     assert!(!ev.has_errors(), "{:#?}", ev.diagnostics);
 }
+
+#[test]
+fn add_and_prism_verification() {
+    let src = "spectacle-lens left\n  power +1.00\n  add +2.50\n  measured-add +2.75\n  measured-prism 0.25Δ BU\n";
+    let ev = eval(src);
+    // [S] ANSI Z80.1-2015: add ±0.12 D up to 4.00 (0.25 off fails); unwanted prism ≤ 0.33Δ (0.25Δ passes)
+    assert_eq!(
+        get(&ev, "spectacle-lens.left.check-add"),
+        &V::Text {
+            text: "fail".into()
+        }
+    );
+    assert_eq!(
+        get(&ev, "spectacle-lens.left.check-prism"),
+        &V::Text {
+            text: "pass".into()
+        }
+    );
+    // [S] a prescribed 2Δ BI measured as 1.5Δ BI is 0.5Δ off: fails the 0.33Δ tolerance
+    let ev = eval("spectacle-lens right\n  power -1.00\n  prism 2Δ BI\n  measured-prism 1.5Δ BI\n");
+    assert_eq!(
+        get(&ev, "spectacle-lens.right.check-prism"),
+        &V::Text {
+            text: "fail".into()
+        }
+    );
+    assert!(codes(&ev).contains(&"P0605"));
+}

@@ -8,7 +8,7 @@ use super::{current_eye, first_frame, n4, sphcyl, Out};
 use crate::codes;
 use crate::derived::DerivedValue as V;
 use crate::diagnostic::{Diagnostic, Severity};
-use crate::model::{Case, Frame, Side, SpectacleLens};
+use crate::model::{At, Case, Frame, Side, SpectacleLens};
 use crate::sources as src;
 use parax_optics::lens_form::{self, material_minimums};
 use parax_optics::prism::{self, prentice, Prism};
@@ -421,21 +421,87 @@ fn thickness(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) 
     }
 }
 
-fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
-    let (Some(ordered), Some(m)) = (power(l), l.measured.as_ref()) else {
-        return;
-    };
-    let measured = SphCyl::new(m.value.sphere, m.value.cylinder, m.value.axis);
-    let v = verify::verify(&ordered, &measured);
-    let mut all = true;
-    let mut parts: Vec<(&str, &str, Check, &str)> = vec![
-        ("check-sphere", "sphere (strongest meridian)", v.sphere, "D"),
-        ("check-cylinder", "cylinder", v.cylinder, "D"),
-    ];
-    if let Some(a) = v.axis {
-        parts.push(("check-axis", "axis", a, "°"));
+/// (horizontal, vertical) components of a recorded prism: base in and base up positive.
+fn components(p: &crate::model::PrismRx) -> (f64, f64) {
+    match p.base.as_str() {
+        "BU" => (0.0, p.amount),
+        "BD" => (0.0, -p.amount),
+        "BI" => (p.amount, 0.0),
+        _ => (-p.amount, 0.0),
     }
-    for (name, what, c, unit) in parts {
+}
+
+type Part<'a> = (&'a str, &'a str, Check, &'a str, parax_syntax::Span);
+
+fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+    let mut parts: Vec<Part<'_>> = Vec::new();
+    let mut compared = Vec::new();
+    if let (Some(ordered), Some(m)) = (power(l), l.measured.as_ref()) {
+        let measured = SphCyl::new(m.value.sphere, m.value.cylinder, m.value.axis);
+        let v = verify::verify(&ordered, &measured);
+        parts.push((
+            "check-sphere",
+            "sphere (strongest meridian)",
+            v.sphere,
+            "D",
+            m.span,
+        ));
+        parts.push(("check-cylinder", "cylinder", v.cylinder, "D", m.span));
+        if let Some(a) = v.axis {
+            parts.push(("check-axis", "axis", a, "°", m.span));
+        }
+        compared.push(format!(
+            "power ordered {}, measured {}",
+            sphcyl(&ordered).display(),
+            sphcyl(&measured).display()
+        ));
+    }
+    if let (Some(o), Some(m)) = (&l.add, &l.measured_add) {
+        parts.push((
+            "check-add",
+            "add",
+            Check {
+                ordered: o.value,
+                measured: m.value,
+                tolerance: verify::add_tolerance(o.value),
+            },
+            "D",
+            m.span,
+        ));
+        compared.push(format!(
+            "add ordered {}, measured {}",
+            n4(o.value),
+            n4(m.value)
+        ));
+    }
+    if let Some(m) = &l.measured_prism {
+        // Unwanted (or wrong) prism: the size of the difference between the prism
+        // measured at the reference point and the prism ordered (none if not ordered).
+        let (mh, mv) = components(&m.value);
+        let (oh, ov) = l
+            .prism
+            .as_ref()
+            .map_or((0.0, 0.0), |p| components(&p.value));
+        let diff = (mh - oh).hypot(mv - ov);
+        parts.push((
+            "check-prism",
+            "prism at the reference point (size of the difference from the order)",
+            Check {
+                ordered: 0.0,
+                measured: diff,
+                tolerance: verify::PRISM_TOLERANCE,
+            },
+            "Δ",
+            m.span,
+        ));
+        compared.push(format!("prism difference {}Δ", n4(diff)));
+    }
+    if parts.is_empty() {
+        return;
+    }
+    let mut all = true;
+    for (name, what, c, unit, span) in parts {
+        let m = At { value: (), span };
         let pass = c.passes();
         all &= pass;
         let band = format!(
@@ -482,13 +548,9 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
         V::Text {
             text: if all { "pass" } else { "fail" }.into(),
         },
-        m.span,
+        l.measured.as_ref().map_or(l.span, |m| m.span),
         "every component compared is within its tolerance",
-        format!(
-            "ordered {}, measured {}",
-            sphcyl(&ordered).display(),
-            sphcyl(&measured).display()
-        ),
+        compared.join("; "),
         src::ANSI_Z80_1_2015,
     );
 }
