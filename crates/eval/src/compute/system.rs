@@ -182,8 +182,10 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             ImagePlace::At {
                 after_element_m, ..
             } => {
+                // n of the medium after the element, recovered from l' = n/L'.
                 format!(
-                    "l' = n/L' = 1/{} = {} m",
+                    "l' = n/L' = {}/{} = {} m",
+                    n4(after_element_m * step.emergent_vergence),
                     n4(step.emergent_vergence),
                     n4(after_element_m)
                 )
