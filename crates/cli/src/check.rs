@@ -39,6 +39,21 @@ fn check_one(path: &Path, format: Format) -> Result<(Checked, Option<serde_json:
             .frames
             .iter()
             .map(|f| f.expects.len())
+            .sum::<usize>()
+        + ev.case
+            .spectacle_lenses
+            .iter()
+            .map(|l| l.expects.len())
+            .sum::<usize>()
+        + ev.case
+            .contact_lenses
+            .iter()
+            .map(|c| c.expects.len())
+            .sum::<usize>()
+        + ev.case
+            .model_eyes
+            .iter()
+            .map(|m| m.expects.len())
             .sum::<usize>();
     Ok(match format {
         Format::Human => (

@@ -7,10 +7,13 @@ use std::path::PathBuf;
 use std::process::{Command, Output, Stdio};
 
 const ROOT: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/../..");
-const EXAMPLES: [&str; 3] = [
+const EXAMPLES: [&str; 6] = [
     "examples/bench-relay.parax",
     "examples/clinic-review.parax",
+    "examples/contact-lens.parax",
+    "examples/dispensing.parax",
     "examples/eye-model.parax",
+    "examples/schematic-eyes.parax",
 ];
 /// The caution the help texts end with (crates/cli/src/main.rs).
 const CAUTION_HELP: &str =
@@ -97,7 +100,7 @@ fn check_examples_json() {
     let o = parax(&["check", "--format", "json", "examples"]);
     assert_eq!(code(&o), 0, "{}", stderr(&o));
     let v: serde_json::Value = serde_json::from_slice(&o.stdout).expect("check prints JSON");
-    assert_eq!(v["files"].as_array().map(Vec::len), Some(3));
+    assert_eq!(v["files"].as_array().map(Vec::len), Some(6));
     insta::assert_snapshot!("check_examples_json", transcript(&o));
 }
 

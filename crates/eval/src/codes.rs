@@ -42,4 +42,14 @@ codes! {
     EXPECT_UNKNOWN = "P0402", "unknown expected value", "An `expect` line names a value the block does not compute.";
     EXPECT_UNAVAILABLE = "P0403", "expected value not computed", "An `expect` line names a value that could not be computed from this block's inputs.";
     SYSTEM_LAYOUT = "P0501", "system layout", "A lens system refers to an unknown lens, or its object or elements are out of order.";
+    TILT_CHANGES_POWER = "P0601", "tilt changes the power", "The lens as worn in this frame's tilt differs by 0.12 D or more in some meridian from the power ordered; the compensated power is the one to consider ordering.";
+    VERTICAL_IMBALANCE = "P0602", "vertical prism imbalance", "The vertical prism difference between the eyes at the reading point exceeds about 1Δ; above about 1.5Δ slab-off may be worth considering.";
+    HORIZONTAL_PRISM = "P0603", "horizontal prism", "The net horizontal prism from decentration exceeds about 3Δ.";
+    THIN_LENS = "P0604", "below material minimum", "A recorded thickness is below the usual minimum for the material (minus centre, or plus edge).";
+    OUT_OF_TOLERANCE = "P0605", "lens out of tolerance", "The measured lens differs from the order (power, add or prism) by more than ANSI Z80.1-2015 allows for that component; the message shows the allowed band.";
+    RESIDUAL_ASTIGMATISM = "P0606", "residual astigmatism", "Under a spherical rigid lens the residual astigmatism is 0.75 D or more; a toric design may be needed.";
+    ANISOMETROPIA = "P0607", "anisometropia", "The eyes differ by 2.00 D or more in spherical equivalent or a principal meridian; prism imbalance and aniseikonia deserve attention.";
+    REFRACTION_CHANGE = "P0608", "refraction change between visits", "The refraction changed by 0.50 D or more per year (blur strength of the change, per year) between two dated visits.";
+    INPUTS_INCOMPLETE = "P0609", "inputs incomplete", "A contact-lens or model-eye block lacks an input that its values need (a refraction with its vertex distance, keratometry, a schematic eye to start from, a surface that exists); the message names it.";
+    IOL_CAUTION = "P0610", "intraocular lens power", "IOL powers were computed: biometry, constants and the choice of lens belong to the surgeon; a warning when refractive surgery is recorded, since neither formula is valid after it without adjustment.";
 }

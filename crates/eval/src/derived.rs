@@ -66,6 +66,19 @@ pub enum DerivedValue {
     },
     /// A point at infinity.
     Infinity,
+    /// A length (thickness, drop), metres; shown in mm.
+    Length {
+        /// Metres.
+        metres: f64,
+    },
+    /// A prism and its base direction (`BU`, `BD`, `BI`, `BO`, or empty for an
+    /// imbalance between the eyes), prism dioptres.
+    Prism {
+        /// Prism dioptres (≥ 0).
+        dioptres: f64,
+        /// Base direction.
+        base: String,
+    },
     /// A pure number (magnification, ratio).
     Number {
         /// The number.
@@ -143,6 +156,10 @@ impl DerivedValue {
                 format!("{:.2} cm {side} {from}", cm.abs())
             }
             DerivedValue::Infinity => "infinity".into(),
+            DerivedValue::Length { metres } => format!("{:.2} mm", metres * 1000.0),
+            DerivedValue::Prism { dioptres, base } => {
+                format!("{dioptres:.2}Δ {base}").trim_end().to_owned()
+            }
             DerivedValue::Number { value } => format!("{value:.4}"),
             DerivedValue::Text { text } => text.clone(),
         }

@@ -35,6 +35,25 @@ fn possible_names(block: &str) -> &'static [&'static str] {
             "corneal-astigmatism",
             "total-corneal-power",
             "keratometric-excess",
+            "amplitude-min",
+            "amplitude-mean",
+            "amplitude-max",
+            "add-suggested",
+            "clear-far",
+            "clear-near",
+            "anisometropia",
+            "anisometropia-180",
+            "anisometropia-90",
+            "change-m",
+            "change-j0",
+            "change-j45",
+            "change-years",
+            "change-m-per-year",
+            "change-blur-per-year",
+            "iol-acd-estimate",
+            "iol-power-srkt",
+            "iol-power-vergence",
+            "iol-predicted-refraction",
         ]
     } else if block.starts_with("system.") {
         &[
@@ -44,6 +63,56 @@ fn possible_names(block: &str) -> &'static [&'static str] {
             "equivalent-power",
             "back-vertex-power",
             "front-vertex-power",
+        ]
+    } else if block.starts_with("spectacle-lens.") {
+        &[
+            "as-worn",
+            "compensated",
+            "compensated-rounded",
+            "distance-prism-horizontal",
+            "reading-prism-vertical",
+            "reading-prism-horizontal",
+            "thickness-centre",
+            "thickness-edge",
+            "magnification",
+            "check-sphere",
+            "check-cylinder",
+            "check-axis",
+            "check-add",
+            "check-prism",
+            "verification",
+        ]
+    } else if block == "frame" || block.starts_with("frame.") {
+        &[
+            "oc-drop",
+            "reading-vertical-imbalance",
+            "distance-horizontal-prism",
+            "aniseikonia",
+        ]
+    } else if block.starts_with("contact-lens.") {
+        &[
+            "corneal-plane",
+            "soft-design",
+            "soft-power",
+            "tear-lens",
+            "rigid-power",
+            "rigid-power-rounded",
+            "residual-astigmatism",
+        ]
+    } else if block.starts_with("model-eye.") {
+        &[
+            "power",
+            "cornea-power",
+            "lens-power",
+            "front-focal",
+            "front-principal",
+            "back-principal",
+            "front-nodal",
+            "back-nodal",
+            "back-focal",
+            "axial-length",
+            "ocular-refraction",
+            "spectacle-refraction",
         ]
     } else {
         &[]
@@ -265,14 +334,35 @@ fn compare(d: &Derived, e: &Expect) -> Result<(), String> {
             } else {
                 1.0
             };
-            if let Some(label) = w.iter().find(|w| *w != "after" && *w != "before") {
-                if !label.eq_ignore_ascii_case(from) {
-                    return Err(format!(
-                        "the computed position is measured from {from}, not {label}"
-                    ));
-                }
+            let label = w
+                .iter()
+                .filter(|w| *w != "after" && *w != "before")
+                .cloned()
+                .collect::<Vec<_>>()
+                .join(" ");
+            if !label.is_empty() && !label.eq_ignore_ascii_case(from) {
+                return Err(format!(
+                    "the computed position is measured from {from}, not {label}"
+                ));
             }
             within(*metres, sign * nums[0].0, tol(0))
+        }
+        V::Length { metres } => {
+            want(1)?;
+            if !nums[0].2 {
+                return Err("a length needs its unit (mm, cm or m)".into());
+            }
+            within(*metres, nums[0].0, tol(0))
+        }
+        V::Prism { dioptres, base } => {
+            want(1)?;
+            within(*dioptres, nums[0].0, tol(0))?;
+            match words(e).first() {
+                Some(w) if dioptres.abs() > tol(0) && !w.eq_ignore_ascii_case(base) => Err(
+                    format!("the computed base is {base}, not {}", w.to_uppercase()),
+                ),
+                _ => Ok(()),
+            }
         }
         V::Infinity => {
             if words(e).iter().any(|w| w == "infinity") {

@@ -82,11 +82,19 @@ pub fn evaluate_case(case: &Case) -> (Vec<Derived>, Vec<Diagnostic>) {
         );
     }
     for f in &case.frames {
-        let id = match &f.name {
-            Some(n) => format!("frame.{}", slug(n)),
-            None => "frame".into(),
-        };
-        expect::check(&id, &f.expects, &derived, &mut diags);
+        expect::check(&compute::frame_id(f), &f.expects, &derived, &mut diags);
+    }
+    for l in &case.spectacle_lenses {
+        let id = compute::spectacle_block_id(l);
+        expect::check(&id, &l.expects, &derived, &mut diags);
+    }
+    for c in &case.contact_lenses {
+        let id = compute::contact_block_id(c);
+        expect::check(&id, &c.expects, &derived, &mut diags);
+    }
+    for m in &case.model_eyes {
+        let id = compute::model_eye_block_id(m);
+        expect::check(&id, &m.expects, &derived, &mut diags);
     }
     (derived, diags)
 }

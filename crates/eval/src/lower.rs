@@ -9,7 +9,7 @@ use crate::read::Reader;
 use crate::schema;
 use crate::units::{self as u};
 use parax_optics::keratometry::{keratometric_radius, KERATOMETRIC_INDEX};
-use parax_syntax::{Block, BlockKind, LineKind, Parsed, Span, Statement, Symbol, Value, ValueKind};
+use parax_syntax::{Block, BlockKind, LineKind, Parsed, Span, Symbol, Value, ValueKind};
 
 /// Read every block of `p` into a [`Case`], appending diagnostics to `diags`.
 pub fn lower(p: &Parsed, diags: &mut Vec<Diagnostic>) -> Case {
@@ -42,7 +42,7 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
                 case.info.title = r.text_value("the case title", form);
             }
             r.finish(form);
-            Target::Case
+            Target::Case(None)
         }
         BlockKind::Eye => {
             let side = side(&mut r, form);
@@ -62,6 +62,10 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
                     axial_length: None,
                     pd: None,
                     age: None,
+                    iol_constant: None,
+                    iol_target: None,
+                    iol_elp: None,
+                    iol_power: None,
                     refractive_surgery: None,
                     expects: Vec::new(),
                 })),
@@ -100,17 +104,59 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
                 expects: Vec::new(),
             })
         }
-        BlockKind::SpectacleLens | BlockKind::ContactLens => {
-            side(&mut r, form);
+        BlockKind::SpectacleLens => {
+            let side = side(&mut r, form);
             r.finish(form);
-            not_evaluated(block.kind, header_span, diags);
-            Target::Later
+            match side {
+                Some(side) => Target::Spectacle(Box::new(SpectacleLens {
+                    side,
+                    span: header_span,
+                    power: None,
+                    add: None,
+                    prism: None,
+                    index: None,
+                    base_curve: None,
+                    centre_thickness: None,
+                    edge_thickness: None,
+                    blank_diameter: None,
+                    measured: None,
+                    measured_add: None,
+                    measured_prism: None,
+                    expects: Vec::new(),
+                })),
+                None => Target::Skip,
+            }
+        }
+        BlockKind::ContactLens => {
+            let side = side(&mut r, form);
+            r.finish(form);
+            match side {
+                Some(side) => Target::Contact(ContactLens {
+                    side,
+                    span: header_span,
+                    base_curve: None,
+                    kind: None,
+                    expects: Vec::new(),
+                }),
+                None => Target::Skip,
+            }
         }
         BlockKind::ModelEye => {
-            r.text_value("the model name", form);
+            let name = if r.at_end() {
+                r.missing::<()>("the model name", form);
+                format!("model-{}", case.model_eyes.len() + 1)
+            } else {
+                r.text_value("the model name", form).unwrap_or_default()
+            };
             r.finish(form);
-            not_evaluated(block.kind, header_span, diags);
-            Target::Later
+            Target::Model(ModelEye {
+                name,
+                span: header_span,
+                from: None,
+                axial_length: None,
+                surfaces: Vec::new(),
+                expects: Vec::new(),
+            })
         }
     };
     // Shape errors on the header line are header errors.
@@ -146,40 +192,34 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
             seen.push(kw);
         }
         let mut r = Reader::new(p, statement, diags);
-        lower_statement(&mut r, &mut target, kw, spec.form, span, statement);
+        lower_statement(&mut r, &mut target, kw, spec.form, span);
     }
     match target {
         Target::Eye(eye) => case.eyes.push(*eye),
         Target::Frame(f) => case.frames.push(f),
         Target::System(s) => case.systems.push(s),
-        Target::Case | Target::Skip | Target::Later => {}
+        Target::Spectacle(l) => case.spectacle_lenses.push(*l),
+        Target::Contact(c) => case.contact_lenses.push(c),
+        Target::Model(m) => case.model_eyes.push(m),
+        Target::Case(age) => {
+            if age.is_some() {
+                case.info.age = age;
+            }
+        }
+        Target::Skip => {}
     }
 }
 
 enum Target {
-    Case,
+    Case(Option<At<f64>>),
     Eye(Box<Eye>),
     Frame(Frame),
     System(System),
-    /// Blocks checked for notation, not evaluated in this version.
-    Later,
+    Spectacle(Box<SpectacleLens>),
+    Contact(ContactLens),
+    Model(ModelEye),
     /// A block whose header could not be read.
     Skip,
-}
-
-fn not_evaluated(kind: BlockKind, span: Span, diags: &mut Vec<Diagnostic>) {
-    diags.push(
-        Diagnostic::new(
-            codes::NOT_EVALUATED,
-            Severity::Info,
-            span,
-            format!(
-                "this version of parax checks the notation of `{}` blocks but computes nothing from them yet",
-                kind.keyword()
-            ),
-        )
-        .hint("units and values are still checked; derived values for this block come in a later version"),
-    );
 }
 
 fn side(r: &mut Reader<'_>, form: &str) -> Option<Side> {
@@ -221,49 +261,37 @@ fn at<T>(value: Option<T>, span: Span) -> Option<At<T>> {
     value.map(|value| At { value, span })
 }
 
-fn lower_statement(
-    r: &mut Reader<'_>,
-    target: &mut Target,
-    kw: &str,
-    form: &str,
-    span: Span,
-    statement: &Statement,
-) {
+fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str, span: Span) {
     if kw == "expect" {
         let e = read_expect(r, form, span);
         match target {
             Target::Eye(eye) => eye.expects.extend(e),
             Target::Frame(f) => f.expects.extend(e),
             Target::System(s) => s.expects.extend(e),
-            Target::Later => {
-                r.diags.push(Diagnostic::new(
-                    codes::EXPECT_UNAVAILABLE,
-                    Severity::Warning,
-                    span,
-                    "this block computes nothing yet in this version, so the recorded result is not checked",
-                ));
-            }
-            Target::Case | Target::Skip => {}
+            Target::Spectacle(l) => l.expects.extend(e),
+            Target::Contact(c) => c.expects.extend(e),
+            Target::Model(m) => m.expects.extend(e),
+            Target::Case(_) | Target::Skip => {}
         }
         return;
     }
     if kw == "note" {
         let t = r.text_value("the note", form);
-        if let (Target::Case, Some(t)) = (&*target, t) {
+        if let (Target::Case(_), Some(t)) = (&*target, t) {
             let _ = t;
         }
         r.finish(form);
         return;
     }
     match target {
-        Target::Case => {
+        Target::Case(age) => {
             // Case facts are recorded for reports; only their form is checked here.
             match kw {
                 "date" => {
                     r.date(form);
                 }
                 "age" => {
-                    r.quantity(&u::AGE, form);
+                    *age = at(r.quantity(&u::AGE, form), span);
                 }
                 "tag" => {
                     r.word("a tag", form);
@@ -304,6 +332,10 @@ fn lower_statement(
             "axial-length" => eye.axial_length = at(r.quantity(&u::AXIAL_LENGTH, form), span),
             "pd" => eye.pd = at(r.quantity(&u::PD, form), span),
             "age" => eye.age = at(r.quantity(&u::AGE, form), span),
+            "iol-constant" => eye.iol_constant = at(r.quantity(&u::IOL_CONSTANT, form), span),
+            "iol-target" => eye.iol_target = at(r.quantity(&u::IOL_TARGET, form), span),
+            "iol-elp" => eye.iol_elp = at(r.quantity(&u::IOL_ELP, form), span),
+            "iol-power" => eye.iol_power = at(r.quantity(&u::IOL_POWER, form), span),
             "refractive-surgery" => eye.refractive_surgery = at(Some(r.rest()), span),
             _ => {}
         },
@@ -329,38 +361,40 @@ fn lower_statement(
             };
             *slot = v;
         }
-        Target::System(s) => {
-            match kw {
-                "object" => {
-                    if r.word_if("at") {
-                        if r.word_if("infinity") {
-                            s.object = At {
-                                value: ObjectAt::Infinity,
-                                span,
+        Target::System(s) => match kw {
+            "object" => {
+                if r.word_if("at") {
+                    if r.word_if("infinity") {
+                        s.object = At {
+                            value: ObjectAt::Infinity,
+                            span,
+                        };
+                    } else {
+                        r.missing::<()>("`infinity`", form);
+                    }
+                } else if let Some(d) = r.quantity(&u::OBJECT_DISTANCE, form) {
+                    if r.word_if("before") {
+                        if let Some((label, label_span)) = r.word("a lens label", form) {
+                            let value = ObjectAt::Before {
+                                distance: d,
+                                label: label.to_owned(),
+                                label_span,
                             };
-                        } else {
-                            r.missing::<()>("`infinity`", form);
+                            s.object = At { value, span };
                         }
-                    } else if let Some(d) = r.quantity(&u::OBJECT_DISTANCE, form) {
-                        if r.word_if("before") {
-                            if let Some((label, label_span)) = r.word("a lens label", form) {
-                                let value = ObjectAt::Before {
-                                    distance: d,
-                                    label: label.to_owned(),
-                                    label_span,
-                                };
-                                s.object = At { value, span };
-                            }
-                        } else {
-                            r.missing::<()>("`before LABEL`", form);
-                        }
+                    } else {
+                        r.missing::<()>("`before LABEL`", form);
                     }
                 }
-                "lens" => {
-                    let label = r.word("a lens label", form);
-                    let power = r.quantity(&u::LENS_POWER, form);
-                    if let (Some((label, lspan)), Some(power)) = (label, power) {
-                        if s.elements.iter().any(|e| matches!(&e.value, SystemElement::Lens { label: l, .. } if l == label)) {
+            }
+            "lens" => {
+                let label = r.word("a lens label", form);
+                let power = r.quantity(&u::LENS_POWER, form);
+                if let (Some((label, lspan)), Some(power)) = (label, power) {
+                    if s.elements
+                        .iter()
+                        .any(|e| element_label(&e.value) == Some(label))
+                    {
                         r.diags.push(Diagnostic::new(
                             codes::SYSTEM_LAYOUT,
                             Severity::Error,
@@ -368,38 +402,118 @@ fn lower_statement(
                             format!("the label `{label}` is already used in this system"),
                         ));
                     }
-                        s.elements.push(At {
-                            value: SystemElement::Lens {
-                                label: label.to_owned(),
-                                power,
-                            },
-                            span,
-                        });
-                    }
-                }
-                "gap" => {
-                    let length = r.quantity(&u::GAP, form);
-                    let index = if r.word_if("index") {
-                        r.quantity(&u::INDEX, form)
-                    } else {
-                        Some(1.0)
-                    };
-                    if let (Some(length), Some(index)) = (length, index) {
-                        s.elements.push(At {
-                            value: SystemElement::Gap { length, index },
-                            span,
-                        });
-                    }
-                }
-                _ => {
-                    r.rest();
+                    s.elements.push(At {
+                        value: SystemElement::Lens {
+                            label: label.to_owned(),
+                            power,
+                        },
+                        span,
+                    });
                 }
             }
-        }
-        Target::Later => {
-            // Keep the values' units honest even where nothing is computed yet.
-            check_units_only(r, statement);
-        }
+            "surface" => {
+                let label = r.word("a surface label", form);
+                let radius = r.quantity(&u::SURFACE_RADIUS, form);
+                let index = if r.word_if("index") {
+                    r.quantity(&u::INDEX, form)
+                } else {
+                    r.missing("`index N` (the index after the surface)", form)
+                };
+                if let (Some((label, lspan)), Some(radius), Some(index_after)) =
+                    (label, radius, index)
+                {
+                    if s.elements
+                        .iter()
+                        .any(|e| element_label(&e.value) == Some(label))
+                    {
+                        r.diags.push(Diagnostic::new(
+                            codes::SYSTEM_LAYOUT,
+                            Severity::Error,
+                            lspan,
+                            format!("the label `{label}` is already used in this system"),
+                        ));
+                    }
+                    s.elements.push(At {
+                        value: SystemElement::Surface {
+                            label: label.to_owned(),
+                            radius,
+                            index_after,
+                        },
+                        span,
+                    });
+                }
+            }
+            "gap" => {
+                let length = r.quantity(&u::GAP, form);
+                let index = if r.word_if("index") {
+                    r.quantity(&u::INDEX, form)
+                } else {
+                    Some(1.0)
+                };
+                if let (Some(length), Some(index)) = (length, index) {
+                    s.elements.push(At {
+                        value: SystemElement::Gap { length, index },
+                        span,
+                    });
+                }
+            }
+            _ => {
+                r.rest();
+            }
+        },
+        Target::Spectacle(l) => match kw {
+            "power" => l.power = at(r.rx(form), span),
+            "measured" => l.measured = at(r.rx(form), span),
+            "add" => l.add = at(r.quantity(&u::ADD, form), span),
+            "prism" => l.prism = at(read_prism(r, form), span),
+            "measured-prism" => l.measured_prism = at(read_prism(r, form), span),
+            "measured-add" => l.measured_add = at(r.quantity(&u::ADD, form), span),
+            "index" => l.index = at(r.quantity(&u::INDEX, form), span),
+            "material" => {
+                r.text_value("the material name", form);
+            }
+            "base-curve" => l.base_curve = at(r.quantity(&u::BASE_CURVE_POWER, form), span),
+            "centre-thickness" => {
+                l.centre_thickness = at(r.quantity(&u::LENS_THICKNESS, form), span)
+            }
+            "edge-thickness" => l.edge_thickness = at(r.quantity(&u::LENS_THICKNESS, form), span),
+            _ => l.blank_diameter = at(r.quantity(&u::DIAMETER, form), span),
+        },
+        Target::Contact(c) => match kw {
+            "base-curve" => c.base_curve = at(r.quantity(&u::CL_BASE_CURVE, form), span),
+            "kind" => {
+                c.kind = at(
+                    r.word_of(&["rigid", "soft"], "a lens type", form)
+                        .map(str::to_owned),
+                    span,
+                )
+            }
+            "power" => {
+                r.rx(form);
+            }
+            _ => {
+                r.quantity(&u::DIAMETER, form);
+            }
+        },
+        Target::Model(m) => match kw {
+            "from" => {
+                m.from = at(
+                    r.word_of(
+                        &["gullstrand", "le-grand", "emsley"],
+                        "a schematic eye",
+                        form,
+                    )
+                    .map(str::to_owned),
+                    span,
+                )
+            }
+            "axial-length" => m.axial_length = at(r.quantity(&u::AXIAL_LENGTH, form), span),
+            _ => {
+                if let Some(o) = read_surface_override(r, form) {
+                    m.surfaces.push(At { value: o, span });
+                }
+            }
+        },
         Target::Skip => {
             r.rest();
         }
@@ -407,21 +521,44 @@ fn lower_statement(
     r.finish(form);
 }
 
-fn check_units_only(r: &mut Reader<'_>, statement: &Statement) {
-    for v in &statement.values {
-        if let ValueKind::Number { unit: Some(us), .. } = v.kind {
-            let t = r.text(us);
-            if u::unit_of(t).is_none() {
-                r.diags.push(Diagnostic::new(
-                    codes::WRONG_UNIT,
-                    Severity::Error,
-                    us,
-                    format!("`{t}` is not a unit of the notation"),
-                ));
-            }
-        }
+fn read_prism(r: &mut Reader<'_>, form: &str) -> Option<PrismRx> {
+    let amount = r.quantity(&u::PRISM, form);
+    let base = r.word_of(&["BU", "BD", "BI", "BO"], "a base direction", form);
+    Some(PrismRx {
+        amount: amount?,
+        base: base?.to_owned(),
+    })
+}
+
+fn element_label(e: &SystemElement) -> Option<&str> {
+    match e {
+        SystemElement::Lens { label, .. } | SystemElement::Surface { label, .. } => Some(label),
+        SystemElement::Gap { .. } => None,
     }
-    r.rest();
+}
+
+fn read_surface_override(r: &mut Reader<'_>, form: &str) -> Option<SurfaceOverride> {
+    let n = r.quantity(&u::LEVEL, form)?;
+    if n < 1.0 || n.fract() != 0.0 {
+        return r.missing("a surface number 1, 2, 3, …", form);
+    }
+    if !r.word_if("radius") {
+        return r.missing("`radius RADIUS mm`", form);
+    }
+    let radius = r.quantity(&u::SURFACE_RADIUS, form)?;
+    let mut o = SurfaceOverride {
+        number: n as usize,
+        radius,
+        index: None,
+        distance: None,
+    };
+    if r.word_if("index") {
+        o.index = Some(r.quantity(&u::INDEX, form)?);
+    }
+    if r.word_if("distance") {
+        o.distance = Some(r.quantity(&u::MODEL_DISTANCE, form)?);
+    }
+    Some(o)
 }
 
 fn read_keratometry(r: &mut Reader<'_>, form: &str) -> Option<[KMeridian; 2]> {

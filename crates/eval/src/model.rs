@@ -97,6 +97,18 @@ pub struct Eye {
     pub pd: Option<At<f64>>,
     /// Age, years.
     pub age: Option<At<f64>>,
+    /// SRK/T A constant.
+    #[serde(default)]
+    pub iol_constant: Option<At<f64>>,
+    /// Target refraction after surgery, D.
+    #[serde(default)]
+    pub iol_target: Option<At<f64>>,
+    /// Effective lens position, metres.
+    #[serde(default)]
+    pub iol_elp: Option<At<f64>>,
+    /// A chosen IOL power, D.
+    #[serde(default)]
+    pub iol_power: Option<At<f64>>,
     /// Refractive-surgery history, as recorded.
     pub refractive_surgery: Option<At<String>>,
     /// `expect` lines.
@@ -128,6 +140,95 @@ pub struct Frame {
     pub expects: Vec<Expect>,
 }
 
+/// A prescribed prism: amount and base direction.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct PrismRx {
+    /// Prism dioptres.
+    pub amount: f64,
+    /// `BU`, `BD`, `BI` or `BO`.
+    pub base: String,
+}
+
+/// The facts of a `spectacle-lens` block.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct SpectacleLens {
+    /// Which eye.
+    pub side: Side,
+    /// The header line.
+    pub span: Span,
+    /// Power ordered.
+    pub power: Option<At<Rx>>,
+    /// Addition ordered, D.
+    pub add: Option<At<f64>>,
+    /// Prescribed prism.
+    pub prism: Option<At<PrismRx>>,
+    /// Refractive index of the material.
+    pub index: Option<At<f64>>,
+    /// Front surface power, D.
+    pub base_curve: Option<At<f64>>,
+    /// Centre thickness, metres.
+    pub centre_thickness: Option<At<f64>>,
+    /// Edge thickness, metres.
+    pub edge_thickness: Option<At<f64>>,
+    /// Uncut diameter, metres.
+    pub blank_diameter: Option<At<f64>>,
+    /// Focimeter reading of the received lens.
+    pub measured: Option<At<Rx>>,
+    /// Addition measured on the received lens, D.
+    #[serde(default)]
+    pub measured_add: Option<At<f64>>,
+    /// Prism measured at the reference point of the received lens.
+    #[serde(default)]
+    pub measured_prism: Option<At<PrismRx>>,
+    /// `expect` lines.
+    pub expects: Vec<Expect>,
+}
+
+/// The facts of a `contact-lens` block.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ContactLens {
+    /// Which eye.
+    pub side: Side,
+    /// The header line.
+    pub span: Span,
+    /// Back optic zone radius, metres.
+    pub base_curve: Option<At<f64>>,
+    /// `rigid` or `soft`.
+    pub kind: Option<At<String>>,
+    /// `expect` lines.
+    pub expects: Vec<Expect>,
+}
+
+/// One surface override of a model eye.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct SurfaceOverride {
+    /// Surface number, from 1 at the front.
+    pub number: usize,
+    /// Radius, metres.
+    pub radius: f64,
+    /// Index after the surface, if overridden.
+    pub index: Option<f64>,
+    /// Distance to the next surface, metres, if overridden.
+    pub distance: Option<f64>,
+}
+
+/// The facts of a `model-eye` block.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ModelEye {
+    /// Name.
+    pub name: String,
+    /// The header line.
+    pub span: Span,
+    /// `gullstrand`, `le-grand` or `emsley`.
+    pub from: Option<At<String>>,
+    /// Axial length override, metres.
+    pub axial_length: Option<At<f64>>,
+    /// Surface overrides.
+    pub surfaces: Vec<At<SurfaceOverride>>,
+    /// `expect` lines.
+    pub expects: Vec<Expect>,
+}
+
 /// Where the object of a system is.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub enum ObjectAt {
@@ -153,6 +254,15 @@ pub enum SystemElement {
         label: String,
         /// Power, D.
         power: f64,
+    },
+    /// `surface LABEL RADIUS index N`: a refracting surface.
+    Surface {
+        /// The label.
+        label: String,
+        /// Radius of curvature, metres (positive: centre to the right).
+        radius: f64,
+        /// Index after the surface.
+        index_after: f64,
     },
     /// `gap LENGTH [index N]`.
     Gap {
@@ -248,4 +358,13 @@ pub struct Case {
     pub frames: Vec<Frame>,
     /// `system` blocks.
     pub systems: Vec<System>,
+    /// `spectacle-lens` blocks.
+    #[serde(default)]
+    pub spectacle_lenses: Vec<SpectacleLens>,
+    /// `contact-lens` blocks.
+    #[serde(default)]
+    pub contact_lenses: Vec<ContactLens>,
+    /// `model-eye` blocks.
+    #[serde(default)]
+    pub model_eyes: Vec<ModelEye>,
 }

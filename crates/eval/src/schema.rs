@@ -83,9 +83,29 @@ const EYE: &[KeywordSpec] = &[
         "LENGTH mm",
         "central corneal thickness, for total corneal power",
     ),
-    later(kw("axial-length", "LENGTH mm", "axial length of the eye")),
-    later(kw("pd", "LENGTH mm", "monocular pupillary distance")),
-    later(kw("age", "N y", "age, when it differs per eye or visit")),
+    kw("axial-length", "LENGTH mm", "axial length of the eye"),
+    kw("pd", "LENGTH mm", "monocular pupillary distance"),
+    kw("age", "N y", "age, when it differs per eye or visit"),
+    kw(
+        "iol-constant",
+        "N",
+        "SRK/T A constant of the intraocular lens considered",
+    ),
+    kw(
+        "iol-target",
+        "POWER",
+        "target refraction after surgery (default 0)",
+    ),
+    kw(
+        "iol-elp",
+        "LENGTH mm",
+        "effective lens position, for the thin-lens vergence formula",
+    ),
+    kw(
+        "iol-power",
+        "POWER",
+        "power of a chosen intraocular lens, for its predicted refraction",
+    ),
     kw(
         "refractive-surgery",
         "\"TEXT\"",
@@ -101,67 +121,73 @@ const FRAME: &[KeywordSpec] = &[
         "LENGTH mm",
         "vertex distance as fitted in this frame",
     ),
-    later(kw("pantoscopic-tilt", "ANGLE deg", "pantoscopic tilt")),
-    later(kw("face-form", "ANGLE deg", "face form (wrap) angle")),
+    kw("pantoscopic-tilt", "ANGLE deg", "pantoscopic tilt"),
+    kw("face-form", "ANGLE deg", "face form (wrap) angle"),
     later(kw(
         "fitting-height",
         "LENGTH mm",
         "height of the pupil centre above the lowest point of the rim",
     )),
-    later(kw(
+    kw(
         "reading-drop",
         "LENGTH mm",
         "how far below the distance centres the eyes read",
-    )),
-    later(kw(
+    ),
+    kw(
         "near-inset",
         "LENGTH mm",
         "inward shift of each reading point",
-    )),
-    later(kw(
+    ),
+    kw(
         "centre-distance",
         "LENGTH mm",
         "distance between the optical centres",
-    )),
+    ),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,
 ];
 
 const SPECTACLE_LENS: &[KeywordSpec] = &[
-    later(kw(
-        "power",
-        "SPHERE [/ CYLINDER x AXIS]",
-        "the power ordered",
-    )),
-    later(kw("add", "POWER", "the addition ordered")),
-    later(kw(
+    kw("power", "SPHERE [/ CYLINDER x AXIS]", "the power ordered"),
+    kw("add", "POWER", "the addition ordered"),
+    kw(
         "prism",
         "AMOUNT Δ BASE",
         "prescribed prism and base direction (BU, BD, BI, BO)",
-    )),
-    later(kw("index", "N", "refractive index of the material")),
+    ),
+    kw("index", "N", "refractive index of the material"),
     later(kw("material", "\"TEXT\"", "material name")),
-    later(kw("base-curve", "POWER", "front surface power")),
-    later(kw("centre-thickness", "LENGTH mm", "centre thickness")),
-    later(kw("edge-thickness", "LENGTH mm", "edge thickness")),
-    later(kw("blank-diameter", "LENGTH mm", "uncut diameter")),
-    later(kw(
+    kw("base-curve", "POWER", "front surface power"),
+    kw("centre-thickness", "LENGTH mm", "centre thickness"),
+    kw("edge-thickness", "LENGTH mm", "edge thickness"),
+    kw("blank-diameter", "LENGTH mm", "uncut diameter"),
+    kw(
         "measured",
         "SPHERE [/ CYLINDER x AXIS]",
         "focimeter reading of the received lens",
-    )),
+    ),
+    kw(
+        "measured-add",
+        "POWER",
+        "addition measured on the received lens",
+    ),
+    kw(
+        "measured-prism",
+        "AMOUNT Δ BASE",
+        "prism measured at the received lens's reference point",
+    ),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,
 ];
 
 const CONTACT_LENS: &[KeywordSpec] = &[
-    later(kw("base-curve", "RADIUS mm", "back optic zone radius")),
+    kw("base-curve", "RADIUS mm", "back optic zone radius"),
     later(kw(
         "power",
         "SPHERE [/ CYLINDER x AXIS]",
         "back vertex power",
     )),
-    later(kw("kind", "rigid | soft", "lens type")),
+    kw("kind", "rigid | soft", "lens type"),
     later(kw("diameter", "LENGTH mm", "total diameter")),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,
@@ -179,27 +205,27 @@ const SYSTEM: &[KeywordSpec] = &[
         "LENGTH [index N]",
         "distance to the next element, in air unless an index is given",
     )),
-    many(later(kw(
+    many(kw(
         "surface",
         "LABEL RADIUS mm index N",
         "a refracting surface",
-    ))),
+    )),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,
 ];
 
 const MODEL_EYE: &[KeywordSpec] = &[
-    later(kw(
+    kw(
         "from",
         "gullstrand | le-grand | emsley",
         "the published schematic eye to start from",
-    )),
-    later(kw("axial-length", "LENGTH mm", "axial length override")),
-    many(later(kw(
+    ),
+    kw("axial-length", "LENGTH mm", "axial length override"),
+    many(kw(
         "surface",
         "N radius RADIUS mm [index N] [distance LENGTH mm]",
         "override one surface",
-    ))),
+    )),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,
 ];

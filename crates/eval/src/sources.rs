@@ -45,3 +45,42 @@ it for IOL or contact lens calculations without a validated adjustment; verify c
 pub const CAUTION_VERTEX: &str =
     "Vertex-compensated powers depend on the vertex distance as actually \
 fitted; verify it clinically before ordering.";
+
+source!(MARTIN, "S", "Martin's formula for tilted spherical lenses, S' = S(1 + sin²a/2n), C = S'·tan²a: Brooks & Borish, System for Ophthalmic Dispensing");
+source!(TILT_MATRIX, "M", "tilted thin spherocylinders by the power matrix: Harris, Optom Vis Sci 2002; Keating, Optom Vis Sci 1995 (reduces to Martin's formula for a sphere)");
+source!(OC_DROP, "CP", "lower the optical centre about 0.5 mm per degree of pantoscopic tilt (common practice, no source)");
+source!(PRENTICE, "S", "Prentice's rule P = c·F, vector form with the dioptric power matrix: Keating, Geometric, Physical, and Visual Optics, 2nd ed. 2002");
+source!(PRISM_TOLERANCE, "CP", "about 1Δ vertical and 3Δ horizontal before symptoms; slab-off worth considering above about 1.5Δ vertical at the reading point (Optician CPD article; common practice)");
+source!(SAG, "S", "exact sag s = r − √(r² − y²), edge = centre + s_back − s_front: J. Loomis, Univ. of Dayton course notes \"Sags and Edge Thickness\"");
+source!(MATERIAL_MINIMUMS, "CP", "minimum thickness: minus centre 2.0 mm (CR-39) or 1.5 mm (high index), plus edge 1.0 mm (common practice, no source)");
+source!(SPECTACLE_MAGNIFICATION, "S", "spectacle magnification = shape factor × power factor, entrance pupil about 3 mm behind the cornea: Fannin & Grosvenor, Clinical Optics");
+source!(ANISEIKONIA, "CP", "aniseikonia estimated as the ratio of the two spectacle magnifications; about 1% per dioptre (common practice)");
+source!(
+    ANSI_Z80_1_2015,
+    "S",
+    "ANSI Z80.1-2015, Prescription Spectacle Lenses, tolerance tables (quick reference guide)"
+);
+source!(CONTACT_RULES, "CP", "soft toric from about 0.75 D of cylinder; rigid tear lens ≈ K(base curve) − flat K with K = 337.5/r; spherical rigid lens fine below about 0.75 D residual (common practice)");
+source!(HOFSTETTER, "S", "Hofstetter, amplitude of accommodation by age: minimum 15 − 0.25·age, mean 18.5 − 0.30·age, maximum 25 − 0.40·age (1950)");
+source!(HALF_RESERVE, "CP", "keep half the amplitude of accommodation in reserve: add = 1/working distance − A/2 (rule of thumb, common practice)");
+source!(SCHEMATIC_EYES, "S", "schematic eyes: Atchison & Smith, Optics of the Human Eye (2000), appendix tables; Le Grand & El Hage, Physiological Optics (1980); Emsley reduced eye [M]");
+
+/// Caution attached to tilt compensation and ordering values.
+pub const CAUTION_ORDER: &str = "Values to order are aids computed from the recorded fitting; \
+verify the fitting and the prescription clinically. Prescribing belongs to a licensed practitioner under local rules.";
+
+/// Caution attached to contact lens suggestions.
+pub const CAUTION_CONTACT: &str = "Contact lens powers here are starting points only: fit, \
+over-refraction and follow-up belong to a licensed practitioner under local rules.";
+
+/// Caution attached to model-eye refraction.
+pub const CAUTION_MODEL: &str = "A schematic eye is a model, not the patient: refraction \
+predicted from axial length is an estimate for study, not a prescription.";
+
+source!(SRKT, "S", "SRK/T: Retzlaff, Sanders & Kraff, J Cataract Refract Surg 1990;16:333-340 (erratum p. 528); target terms with minus signs");
+source!(IOL_VERGENCE, "M", "thin-lens vergence IOL formula P = n/(AL − ELP) − n/(n/(K + Z) − ELP), Z = R/(1 − V·R), n 1.336");
+
+/// Caution attached to every intraocular lens value.
+pub const CAUTION_IOL: &str = "IOL power is for licensed surgical practice only: biometry, lens \
+constants and the choice of lens belong to the surgeon, with measured biometry and optimised constants. \
+Not valid after corneal refractive surgery without a validated adjustment.";

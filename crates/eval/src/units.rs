@@ -289,3 +289,39 @@ spec!(
     0.05
 );
 spec!(LEVEL, "a plain number", Ratio, None, Degree, -1.0e9, 1.0e9);
+spec!(
+    IOL_CONSTANT,
+    "SRK/T A constant",
+    Ratio,
+    None,
+    Degree,
+    110.0,
+    125.0
+);
+spec!(
+    IOL_TARGET,
+    "target refraction",
+    Power,
+    Some(Unit::Dioptre),
+    Dioptre,
+    -10.0,
+    10.0
+);
+spec!(
+    IOL_POWER,
+    "intraocular lens power",
+    Power,
+    Some(Unit::Dioptre),
+    Dioptre,
+    -10.0,
+    40.0
+);
+spec!(
+    IOL_ELP,
+    "effective lens position",
+    Length,
+    None,
+    Millimetre,
+    0.002,
+    0.008
+);

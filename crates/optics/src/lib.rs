@@ -31,6 +31,14 @@
 //! - [`keratometry`]: keratometric and true corneal power, corneal astigmatism.
 //! - [`system`]: thin lenses, refracting surfaces and gaps; step-along vergence
 //!   and ray-transfer matrices; cardinal points.
+//! - [`tilt`]: tilted spectacle lenses (Martin's formula and its matrix form).
+//! - [`prism`]: Prentice's rule, base directions, imbalance.
+//! - [`lens_form`]: sags, thickness, spectacle magnification.
+//! - [`verify`]: received-lens tolerances of ANSI Z80.1-2015.
+//! - [`contact`]: corneal-plane power, soft and rigid contact lenses.
+//! - [`near`]: amplitude of accommodation and near ranges.
+//! - [`model_eye`]: published schematic eyes and refraction from axial length.
+//! - [`iol`]: intraocular lens power (vergence formula, SRK/T).
 //!
 //! # Example
 //!
@@ -44,10 +52,18 @@
 #![forbid(unsafe_code)]
 #![warn(missing_docs)]
 
+pub mod contact;
+pub mod iol;
 pub mod keratometry;
+pub mod lens_form;
+pub mod model_eye;
+pub mod near;
+pub mod prism;
 pub mod refraction;
 pub mod system;
+pub mod tilt;
 pub mod units;
+pub mod verify;
 pub mod vertex;
 
 pub use refraction::{normalize_axis, FarPoint, Meridian, PowerVector, SphCyl};

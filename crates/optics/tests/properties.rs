@@ -91,3 +91,39 @@ proptest! {
         assert_close!(system_matrix(&els).det(), 1.0, 1e-9);
     }
 }
+
+proptest! {
+    /// The compensated order is the exact inverse of the as-worn mapping, and the
+    /// as-worn mapping of a sphere tilted about one axis is Martin's formula.
+    #[test]
+    fn tilt_compensation_round_trip(
+        rx in sphcyl(),
+        p in -10.0f64..25.0,
+        f in -5.0f64..35.0,
+        n in 1.45f64..1.8,
+    ) {
+        use parax_optics::tilt::{as_worn, compensated, martin, Tilt};
+        let t = Tilt { pantoscopic_deg: p, face_form_deg: f };
+        let back = as_worn(&compensated(&rx, t, n), t, n).power_vector();
+        let want = rx.power_vector();
+        prop_assert!((back.m - want.m).abs() < 1e-9);
+        prop_assert!((back.j0 - want.j0).abs() < 1e-9);
+        prop_assert!((back.j45 - want.j45).abs() < 1e-9);
+        let s = rx.sphere;
+        let worn = as_worn(&SphCyl::new(s, 0.0, 180.0), Tilt { pantoscopic_deg: p, face_form_deg: 0.0 }, n);
+        let (ms, mc) = martin(s, p, n);
+        // Martin: power S' in the 180 meridian and S' + C in the 90 meridian.
+        prop_assert!((worn.meridian_power(180.0) - ms).abs() < 1e-9);
+        prop_assert!((worn.meridian_power(90.0) - (ms + mc)).abs() < 1e-9);
+    }
+
+    /// Prentice's rule is linear in the decentration and the base flips with it.
+    #[test]
+    fn prentice_is_odd_in_decentration(rx in sphcyl(), x in -0.01f64..0.01, y in -0.01f64..0.01) {
+        use parax_optics::prism::{prentice, Eye};
+        let a = prentice(&rx, Eye::Right, x, y);
+        let b = prentice(&rx, Eye::Right, -x, -y);
+        prop_assert!((a.base_in + b.base_in).abs() < 1e-9);
+        prop_assert!((a.base_up + b.base_up).abs() < 1e-9);
+    }
+}

@@ -1,21 +1,82 @@
 //! From the case model to derived values and the diagnostics they raise. Works on
 //! the model alone (no text), so a case read from JSON evaluates identically.
 
+mod contact;
 mod eye;
+mod iol;
+mod model_eye;
+mod near;
+mod spectacle;
 mod system;
+mod visits;
 
 use crate::derived::{Derivation, Derived, DerivedValue, Source};
 use crate::diagnostic::Diagnostic;
-use crate::model::Case;
+use crate::model::{Case, Eye, Frame, Side};
+use parax_optics::refraction::SphCyl;
 use parax_syntax::Span;
 
 /// Every derived value and diagnostic of a case.
 pub fn compute(case: &Case, derived: &mut Vec<Derived>, diags: &mut Vec<Diagnostic>) {
     for e in &case.eyes {
-        eye::compute(case, e, &mut Out::new(eye::block_id(e), derived), diags);
+        let mut out = Out::new(eye::block_id(e), derived);
+        eye::compute(case, e, &mut out, diags);
+        near::compute(case, e, &mut out);
+        iol::compute(e, &mut out, diags);
+        visits::compute(case, e, &mut out, diags);
     }
     for s in &case.systems {
         system::compute(s, &mut Out::new(system::block_id(s), derived), diags);
+    }
+    for l in &case.spectacle_lenses {
+        spectacle::compute(
+            case,
+            l,
+            &mut Out::new(spectacle::block_id(l), derived),
+            diags,
+        );
+    }
+    for f in &case.frames {
+        spectacle::compute_frame(
+            case,
+            f,
+            &mut Out::new(spectacle::frame_id(f), derived),
+            diags,
+        );
+    }
+    for c in &case.contact_lenses {
+        contact::compute(case, c, &mut Out::new(contact::block_id(c), derived), diags);
+    }
+    for m in &case.model_eyes {
+        model_eye::compute(
+            case,
+            m,
+            &mut Out::new(model_eye::block_id(m), derived),
+            diags,
+        );
+    }
+}
+
+/// The eye block a lens of `side` is fitted to: the undated block if there is one,
+/// else the latest dated visit.
+pub(crate) fn current_eye(case: &Case, side: Side) -> Option<&Eye> {
+    let mine = case.eyes.iter().filter(|e| e.side == side);
+    mine.clone()
+        .find(|e| e.date.is_none())
+        .or_else(|| mine.max_by(|a, b| a.date.cmp(&b.date)))
+}
+
+/// The frame the lenses are fitted in: the first `frame` block.
+pub(crate) fn first_frame(case: &Case) -> Option<&Frame> {
+    case.frames.first()
+}
+
+/// A spherocylinder as a derived value.
+pub(crate) fn sphcyl(rx: &SphCyl) -> DerivedValue {
+    DerivedValue::SphCyl {
+        sphere: rx.sphere,
+        cylinder: rx.cylinder,
+        axis: rx.axis,
     }
 }
 
@@ -80,5 +141,8 @@ pub(crate) fn n4(x: f64) -> String {
     format!("{x:.4}")
 }
 
+pub use contact::block_id as contact_block_id;
 pub use eye::block_id as eye_block_id;
+pub use model_eye::block_id as model_eye_block_id;
+pub use spectacle::{block_id as spectacle_block_id, frame_id};
 pub use system::block_id as system_block_id;

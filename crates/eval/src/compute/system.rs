@@ -1,5 +1,5 @@
 //! Derived values of a `system` block: per-lens vergences, images and
-//! magnifications by step-along vergence; the final image; equivalent,
+//! magnifications by step-along vergence (thin lenses and refracting surfaces); the final image; equivalent,
 //! back-vertex and front-vertex power by ray-transfer matrices.
 
 use super::{n4, slug, Out};
@@ -33,7 +33,9 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         .iter()
         .enumerate()
         .filter_map(|(i, e)| match &e.value {
-            SystemElement::Lens { label, .. } => Some((i, label.as_str())),
+            SystemElement::Lens { label, .. } | SystemElement::Surface { label, .. } => {
+                Some((i, label.as_str()))
+            }
             SystemElement::Gap { .. } => None,
         })
         .collect();
@@ -96,6 +98,14 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         .iter()
         .map(|e| match &e.value {
             SystemElement::Lens { power, .. } => Element::ThinLens { power: *power },
+            SystemElement::Surface {
+                radius,
+                index_after,
+                ..
+            } => Element::Surface {
+                radius_m: *radius,
+                index_after: *index_after,
+            },
             SystemElement::Gap { length, index } => Element::Gap {
                 length_m: *length,
                 index: *index,
@@ -113,9 +123,28 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
     };
     for step in &t.steps {
         let el = &s.elements[step.element_index];
-        let SystemElement::Lens { label, power } = &el.value else {
-            continue;
+        let (label, power) = match &el.value {
+            SystemElement::Lens { label, power } => (label, *power),
+            SystemElement::Surface {
+                label,
+                radius,
+                index_after,
+            } => {
+                // F = (n' − n)/r with n the index of the medium before the surface.
+                let before = s.elements[..step.element_index]
+                    .iter()
+                    .rev()
+                    .find_map(|e| match &e.value {
+                        SystemElement::Gap { index, .. } => Some(*index),
+                        SystemElement::Surface { index_after, .. } => Some(*index_after),
+                        SystemElement::Lens { .. } => None,
+                    })
+                    .unwrap_or(1.0);
+                (label, (index_after - before) / radius)
+            }
+            SystemElement::Gap { .. } => continue,
         };
+        let power = &power;
         let span = el.span;
         let line = format!(
             "{label}: L = {}, L' = L + F = {} + {} = {}",
@@ -153,8 +182,10 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             ImagePlace::At {
                 after_element_m, ..
             } => {
+                // n of the medium after the element, recovered from l' = n/L'.
                 format!(
-                    "l' = n/L' = 1/{} = {} m",
+                    "l' = n/L' = {}/{} = {} m",
+                    n4(after_element_m * step.emergent_vergence),
                     n4(step.emergent_vergence),
                     n4(after_element_m)
                 )

@@ -1,0 +1,224 @@
+//! Derived values of a `contact-lens` block: the eye's refraction at the corneal
+//! plane, a soft-lens suggestion (spherical equivalent or toric), and for a rigid
+//! lens the tear lens, the lens power and the residual astigmatism.
+
+use super::{current_eye, n4, sphcyl, Out};
+use crate::codes;
+use crate::derived::DerivedValue as V;
+use crate::diagnostic::{Diagnostic, Severity};
+use crate::model::{Case, ContactLens};
+use crate::sources as src;
+use parax_optics::contact;
+use parax_optics::keratometry::{keratometric_power, KERATOMETRIC_INDEX};
+use parax_optics::refraction::SphCyl;
+use parax_optics::vertex::{round_sphcyl, round_to_step};
+
+/// `contact-lens.right` or `contact-lens.left`.
+pub fn block_id(c: &ContactLens) -> String {
+    format!("contact-lens.{}", c.side.name())
+}
+
+fn incomplete(c: &ContactLens, what: &str, diags: &mut Vec<Diagnostic>) {
+    diags.push(
+        Diagnostic::new(
+            codes::INPUTS_INCOMPLETE,
+            Severity::Warning,
+            c.span,
+            format!("this contact lens needs {what}"),
+        )
+        .hint(format!("record it in the `eye {}` block", c.side.name())),
+    );
+}
+
+pub(super) fn compute(
+    case: &Case,
+    c: &ContactLens,
+    out: &mut Out<'_>,
+    diags: &mut Vec<Diagnostic>,
+) {
+    let Some(eye) = current_eye(case, c.side) else {
+        return incomplete(
+            c,
+            "an `eye` block of the same side with a refraction",
+            diags,
+        );
+    };
+    let Some(r) = &eye.refraction else {
+        return incomplete(c, "the eye's `refraction`", diags);
+    };
+    let Some(vertex) = r.value.vertex else {
+        return incomplete(
+            c,
+            "the vertex distance of the refraction (`@ VERTEX mm`)",
+            diags,
+        );
+    };
+    let rx = SphCyl::new(r.value.rx.sphere, r.value.rx.cylinder, r.value.rx.axis);
+    let corneal = contact::corneal_plane(&rx, vertex).minus_cyl();
+    out.push(
+        "corneal-plane",
+        "refraction at the corneal plane",
+        sphcyl(&corneal),
+        c.span,
+        "F_c = F / (1 − d·F) per principal meridian",
+        format!(
+            "{} @ {} mm → {}",
+            sphcyl(&rx).display(),
+            n4(vertex * 1000.0),
+            sphcyl(&corneal).display()
+        ),
+        src::VERGENCE,
+    )
+    .caution = Some(src::CAUTION_CONTACT);
+    let rigid = match &c.kind {
+        Some(k) => k.value == "rigid",
+        None => c.base_curve.is_some(),
+    };
+    if !rigid {
+        let toric = contact::soft_is_toric(&corneal);
+        out.push(
+            "soft-design",
+            "soft lens design suggested",
+            V::Text {
+                text: if toric { "toric" } else { "spherical" }.into(),
+            },
+            c.span,
+            "toric when |cylinder at the cornea| ≥ 0.75 D",
+            format!(
+                "|{}| {} 0.75",
+                n4(corneal.cylinder),
+                if toric { "≥" } else { "<" }
+            ),
+            src::CONTACT_RULES,
+        )
+        .caution = Some(src::CAUTION_CONTACT);
+        let lens = if toric {
+            round_sphcyl(&corneal, 0.25)
+        } else {
+            SphCyl::new(
+                round_to_step(corneal.spherical_equivalent(), 0.25),
+                0.0,
+                180.0,
+            )
+        };
+        out.push(
+            "soft-power",
+            "soft lens power suggested, to 0.25 D",
+            sphcyl(&lens),
+            c.span,
+            if toric {
+                "corneal-plane sphere and cylinder, each to 0.25 D"
+            } else {
+                "spherical equivalent at the corneal plane, to 0.25 D"
+            },
+            format!(
+                "{} → {}",
+                sphcyl(&corneal).display(),
+                sphcyl(&lens).display()
+            ),
+            src::CONTACT_RULES,
+        )
+        .caution = Some(src::CAUTION_CONTACT);
+        return;
+    }
+    let Some(k) = &eye.keratometry else {
+        return incomplete(c, "the eye's `keratometry` (for the tear lens)", diags);
+    };
+    let Some(bc) = &c.base_curve else {
+        return incomplete(c, "a `base-curve` (back optic zone radius)", diags);
+    };
+    let index = eye
+        .keratometric_index
+        .as_ref()
+        .map_or(KERATOMETRIC_INDEX, |i| i.value);
+    let ks = k
+        .value
+        .map(|m| (keratometric_power(m.radius, index), m.meridian));
+    let (flat, steep) = if ks[0].0 <= ks[1].0 {
+        (ks[0], ks[1])
+    } else {
+        (ks[1], ks[0])
+    };
+    let tear = contact::tear_lens(bc.value, flat.0);
+    out.push(
+        "tear-lens",
+        "tear lens power",
+        V::Power { dioptres: tear },
+        bc.span,
+        "K(base curve) − flat K, K = 337.5 / r(mm)",
+        format!(
+            "337.5 / {} − {} = {}",
+            n4(bc.value * 1000.0),
+            n4(flat.0),
+            n4(tear)
+        ),
+        src::CONTACT_RULES,
+    )
+    .caution = Some(src::CAUTION_CONTACT);
+    let p = contact::rigid_power(&corneal, flat.1, tear);
+    out.push(
+        "rigid-power",
+        "rigid lens power",
+        V::Power { dioptres: p },
+        bc.span,
+        "corneal-plane power in the flat meridian − tear lens",
+        format!(
+            "{} (meridian {}) − {} = {}",
+            n4(corneal.meridian_power(flat.1)),
+            n4(flat.1),
+            n4(tear),
+            n4(p)
+        ),
+        src::CONTACT_RULES,
+    )
+    .caution = Some(src::CAUTION_CONTACT);
+    let pr = round_to_step(p, 0.25);
+    out.push(
+        "rigid-power-rounded",
+        "rigid lens power, to 0.25 D",
+        V::Power { dioptres: pr },
+        bc.span,
+        "to the nearest 0.25 D",
+        format!("{} → {}", n4(p), n4(pr)),
+        src::ROUNDING,
+    )
+    .caution = Some(src::CAUTION_CONTACT);
+    let cc = contact::corneal_cylinder(flat.0, flat.1, steep.0);
+    let (rc, ra) = contact::residual_astigmatism(&corneal, &cc);
+    out.push(
+        "residual-astigmatism",
+        "residual astigmatism under a spherical rigid lens",
+        V::Cylinder {
+            dioptres: rc,
+            axis: ra,
+        },
+        k.span,
+        "refractive cylinder − corneal cylinder, as power vectors (J0, J45)",
+        format!(
+            "({} x {}) − ({} x {}) = {} x {}",
+            n4(corneal.cylinder),
+            n4(corneal.axis),
+            n4(cc.cylinder),
+            n4(cc.axis),
+            n4(rc),
+            n4(ra)
+        ),
+        src::THIBOS_1997,
+    )
+    .caution = Some(src::CAUTION_CONTACT);
+    if rc.abs() >= contact::SPHERICAL_RIGID_BELOW - 1e-9 {
+        diags.push(
+            Diagnostic::new(
+                codes::RESIDUAL_ASTIGMATISM,
+                Severity::Info,
+                c.span,
+                format!(
+                    "residual astigmatism {:.2} x {:.0} under a spherical rigid lens",
+                    rc, ra
+                ),
+            )
+            .hint("a front-toric or bitoric rigid design may be needed [CP]")
+            .caution(src::CAUTION_CONTACT),
+        );
+    }
+}

@@ -1,0 +1,130 @@
+//! Intraocular lens values of an `eye` block: SRK/T power for the target
+//! refraction and its estimated anterior chamber depth, the thin-lens vergence
+//! formula with a recorded effective lens position, and the predicted refraction
+//! of a chosen lens. Every value carries the strong IOL caution.
+
+use super::{n4, Out};
+use crate::codes;
+use crate::derived::DerivedValue as V;
+use crate::diagnostic::{Diagnostic, Severity};
+use crate::model::Eye;
+use crate::sources as src;
+use parax_optics::iol;
+use parax_optics::keratometry::{keratometric_power, KERATOMETRIC_INDEX};
+
+pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+    let (Some(al), Some(k)) = (&e.axial_length, &e.keratometry) else {
+        return;
+    };
+    if e.iol_constant.is_none() && e.iol_elp.is_none() {
+        return;
+    }
+    let index = e
+        .keratometric_index
+        .as_ref()
+        .map_or(KERATOMETRIC_INDEX, |i| i.value);
+    let mean_k = k
+        .value
+        .iter()
+        .map(|m| keratometric_power(m.radius, index))
+        .sum::<f64>()
+        / 2.0;
+    let l = al.value * 1000.0;
+    let target = e.iol_target.as_ref().map_or(0.0, |t| t.value);
+    let mut any = false;
+    if let Some(a) = &e.iol_constant {
+        any = true;
+        let g = iol::srkt_geometry(l, mean_k, a.value);
+        out.push(
+            "iol-acd-estimate",
+            "SRK/T estimated postoperative anterior chamber depth",
+            V::Length {
+                metres: g.acd / 1000.0,
+            },
+            a.span,
+            "ACD = H + (0.62467·A − 68.747) − 3.336, H from corneal height (SRK/T)",
+            format!(
+                "L {} mm, K {}, A {} → ACD {} mm",
+                n4(l),
+                n4(mean_k),
+                a.value,
+                n4(g.acd)
+            ),
+            src::SRKT,
+        )
+        .caution = Some(src::CAUTION_IOL);
+        let p = iol::srkt_power(l, mean_k, a.value, target);
+        out.push(
+            "iol-power-srkt",
+            "IOL power for the target refraction (SRK/T)",
+            V::Power { dioptres: p },
+            a.span,
+            "SRK/T (Retzlaff, Sanders & Kraff 1990), V = 12 mm, target terms with minus signs",
+            format!(
+                "L {} mm, mean K {}, A {}, target {} → {}",
+                n4(l),
+                n4(mean_k),
+                a.value,
+                n4(target),
+                n4(p)
+            ),
+            src::SRKT,
+        )
+        .caution = Some(src::CAUTION_IOL);
+        if let Some(chosen) = &e.iol_power {
+            let r = iol::srkt_refraction(l, mean_k, a.value, chosen.value);
+            out.push(
+                "iol-predicted-refraction",
+                "predicted refraction with the chosen IOL (SRK/T, at 12 mm)",
+                V::Power { dioptres: r },
+                chosen.span,
+                "SRK/T solved for the refraction",
+                format!("IOL {} D → {}", n4(chosen.value), n4(r)),
+                src::SRKT,
+            )
+            .caution = Some(src::CAUTION_IOL);
+        }
+    }
+    if let Some(elp) = &e.iol_elp {
+        any = true;
+        let p = iol::vergence_power(l, mean_k, elp.value * 1000.0, target, 12.0);
+        out.push(
+            "iol-power-vergence",
+            "IOL power for the target refraction (thin-lens vergence formula)",
+            V::Power { dioptres: p },
+            elp.span,
+            "P = n/(AL − ELP) − n/(n/(K + Z) − ELP), Z = R/(1 − 0.012·R), n = 1.336",
+            format!(
+                "AL {} mm, K {}, ELP {} mm, R {} → {}",
+                n4(l),
+                n4(mean_k),
+                n4(elp.value * 1000.0),
+                n4(target),
+                n4(p)
+            ),
+            src::IOL_VERGENCE,
+        )
+        .caution = Some(src::CAUTION_IOL);
+    }
+    if any {
+        let after_surgery = e.refractive_surgery.is_some();
+        diags.push(
+            Diagnostic::new(
+                codes::IOL_CAUTION,
+                if after_surgery {
+                    Severity::Warning
+                } else {
+                    Severity::Info
+                },
+                al.span,
+                if after_surgery {
+                    "IOL power computed after corneal refractive surgery: these formulas are not valid without a validated adjustment"
+                } else {
+                    "IOL power computed: an aid for the surgeon, not a lens choice"
+                },
+            )
+            .hint("biometry, lens constants and the choice of lens belong to the surgeon")
+            .caution(src::CAUTION_IOL),
+        );
+    }
+}

@@ -1,0 +1,190 @@
+//! Derived values of a `model-eye` block: a published schematic eye with the
+//! case's overrides, by ray-transfer matrices: powers, cardinal points, the
+//! second focal point, and the refraction its axial length implies at the cornea
+//! and at a spectacle vertex distance.
+
+use super::{first_frame, n4, slug, Out};
+use crate::codes;
+use crate::derived::DerivedValue as V;
+use crate::diagnostic::{Diagnostic, Severity};
+use crate::model::{Case, ModelEye};
+use crate::sources as src;
+use parax_optics::model_eye::{self, EyeSurface, Schematic};
+use parax_optics::system::{system_matrix_in, system_powers};
+
+/// `model-eye.<slug of the name>`.
+pub fn block_id(m: &ModelEye) -> String {
+    format!("model-eye.{}", slug(&m.name))
+}
+
+/// Vertex distance for the spectacle refraction when no frame records one, metres
+/// (a common default, no source).
+const DEFAULT_VERTEX: f64 = 0.012;
+
+fn power_of(surfaces: &[EyeSurface], n_before: f64) -> f64 {
+    let els = model_eye::elements(surfaces);
+    system_powers(&system_matrix_in(&els, n_before)).equivalent
+}
+
+pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+    let Some(from) = &m.from else {
+        diags.push(
+            Diagnostic::new(
+                codes::INPUTS_INCOMPLETE,
+                Severity::Warning,
+                m.span,
+                "this model eye names no schematic eye to start from",
+            )
+            .hint("add `from gullstrand`, `from le-grand` or `from emsley`"),
+        );
+        return;
+    };
+    let model = match from.value.as_str() {
+        "gullstrand" => Schematic::GullstrandExact,
+        "le-grand" => Schematic::LeGrandFull,
+        _ => Schematic::EmsleyReduced,
+    };
+    let mut s = model.surfaces();
+    let mut changes = Vec::new();
+    for o in &m.surfaces {
+        let Some(surf) = s.get_mut(o.value.number.wrapping_sub(1)) else {
+            diags.push(Diagnostic::new(
+                codes::INPUTS_INCOMPLETE,
+                Severity::Error,
+                o.span,
+                format!(
+                    "the {} has {} surface(s); there is no surface {}",
+                    model.name(),
+                    s.len(),
+                    o.value.number
+                ),
+            ));
+            continue;
+        };
+        surf.radius_m = o.value.radius;
+        if let Some(n) = o.value.index {
+            surf.index_after = n;
+        }
+        if let Some(d) = o.value.distance {
+            surf.distance_m = d;
+        }
+        changes.push(format!("surface {} overridden", o.value.number));
+    }
+    if let Some(al) = &m.axial_length {
+        model_eye::with_axial_length(&mut s, al.value);
+        changes.push(format!("axial length {} mm", n4(al.value * 1000.0)));
+    }
+    let base = if changes.is_empty() {
+        model.name().to_owned()
+    } else {
+        format!("{} ({})", model.name(), changes.join(", "))
+    };
+    let r = model_eye::evaluate(&s);
+    let span = m.span;
+    out.push(
+        "power",
+        "equivalent power of the eye",
+        V::Power { dioptres: r.power },
+        span,
+        "F = −C of the system matrix (refraction [[1,0],[−F,1]], transfer [[1,d/n],[0,1]])",
+        format!("{base}: F = {}", n4(r.power)),
+        src::SCHEMATIC_EYES,
+    );
+    if s.len() >= 4 {
+        let cornea = power_of(&s[..2], 1.0);
+        let lens = power_of(&s[2..], s[1].index_after);
+        out.push(
+            "cornea-power",
+            "power of the cornea (surfaces 1-2)",
+            V::Power { dioptres: cornea },
+            span,
+            "equivalent power of surfaces 1 and 2 and the gap between them",
+            format!("{base}: {}", n4(cornea)),
+            src::SCHEMATIC_EYES,
+        );
+        out.push(
+            "lens-power",
+            "power of the crystalline lens (surfaces 3 on, in aqueous)",
+            V::Power { dioptres: lens },
+            span,
+            "equivalent power of surfaces 3 onward, object space index of the aqueous",
+            format!("{base}: {}", n4(lens)),
+            src::SCHEMATIC_EYES,
+        );
+    }
+    let inner: f64 = s[..s.len() - 1].iter().map(|x| x.distance_m).sum();
+    if let Some(c) = r.cardinal {
+        for (name, label, v) in [
+            ("front-focal", "first focal point", c.front_focal),
+            (
+                "front-principal",
+                "first principal point",
+                c.front_principal,
+            ),
+            (
+                "back-principal",
+                "second principal point",
+                inner + c.back_principal,
+            ),
+            ("front-nodal", "first nodal point", c.front_nodal),
+            ("back-nodal", "second nodal point", inner + c.back_nodal),
+            ("back-focal", "second focal point", inner + c.back_focal),
+        ] {
+            out.push(
+                name,
+                label,
+                V::Distance {
+                    metres: v,
+                    from: "the cornea".into(),
+                },
+                span,
+                "cardinal points from the system matrix (n·D/C, n·(D − 1)/C, n'·(1 − A)/C, nodal = principal + (n' − n)/F)",
+                format!("{base}: {} mm from the cornea", n4(v * 1000.0)),
+                src::MATRICES,
+            );
+        }
+    }
+    let al = model_eye::axial_length(&s);
+    out.push(
+        "axial-length",
+        "axial length (cornea to retina)",
+        V::Length { metres: al },
+        m.axial_length.as_ref().map_or(span, |a| a.span),
+        "sum of the surface distances",
+        format!("{} mm", n4(al * 1000.0)),
+        src::SCHEMATIC_EYES,
+    );
+    out.push(
+        "ocular-refraction",
+        "refraction at the cornea implied by the axial length",
+        V::Power {
+            dioptres: r.ocular_refraction,
+        },
+        span,
+        "K = A/B of the matrix from the cornea to the retina (far-point vergence)",
+        format!("{base}: K = {}", n4(r.ocular_refraction)),
+        src::MATRICES,
+    )
+    .caution = Some(src::CAUTION_MODEL);
+    let (vertex, whence) = match first_frame(case).and_then(|f| f.vertex.as_ref()) {
+        Some(v) => (v.value, "the frame's vertex distance"),
+        None => (DEFAULT_VERTEX, "12 mm (no frame vertex recorded)"),
+    };
+    let fs = model_eye::spectacle_refraction(r.ocular_refraction, vertex);
+    out.push(
+        "spectacle-refraction",
+        "spectacle refraction implied by the axial length",
+        V::Power { dioptres: fs },
+        span,
+        "F_s = K / (1 + d·K)",
+        format!(
+            "{} / (1 + {}·{}) = {} at {whence}",
+            n4(r.ocular_refraction),
+            n4(vertex),
+            n4(r.ocular_refraction),
+            n4(fs)
+        ),
+        src::VERGENCE,
+    )
+    .caution = Some(src::CAUTION_MODEL);
+}

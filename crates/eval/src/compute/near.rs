@@ -1,0 +1,104 @@
+//! Near vision values of an `eye` block: Hofstetter's amplitudes for the age
+//! recorded (eye or case), the range of clear vision through the add, and an add
+//! suggestion that keeps half the mean amplitude in reserve (rule of thumb).
+
+use super::{n4, Out};
+use crate::derived::DerivedValue as V;
+use crate::model::{Case, Eye};
+use crate::sources as src;
+use parax_optics::near;
+use parax_optics::vertex::round_to_step;
+
+/// Working distance for the add suggestion, metres (common practice).
+const WORKING_DISTANCE: f64 = 0.40;
+
+pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
+    let Some(age) = e.age.as_ref().or(case.info.age.as_ref()) else {
+        return;
+    };
+    let (lo, mean, hi) = near::hofstetter(age.value);
+    let span = e.age.as_ref().map_or(e.span, |a| a.span);
+    for (name, label, v, f) in [
+        (
+            "amplitude-min",
+            "expected amplitude of accommodation, minimum",
+            lo,
+            "15 − 0.25·age",
+        ),
+        (
+            "amplitude-mean",
+            "expected amplitude of accommodation, mean",
+            mean,
+            "18.5 − 0.30·age",
+        ),
+        (
+            "amplitude-max",
+            "expected amplitude of accommodation, maximum",
+            hi,
+            "25 − 0.40·age",
+        ),
+    ] {
+        out.push(
+            name,
+            label,
+            V::Power { dioptres: v },
+            span,
+            "Hofstetter: min 15 − 0.25·age, mean 18.5 − 0.30·age, max 25 − 0.40·age",
+            format!("{f} with age {} = {}", n4(age.value), n4(v)),
+            src::HOFSTETTER,
+        );
+    }
+    let suggested = round_to_step(near::add_keeping_half(WORKING_DISTANCE, mean), 0.25);
+    out.push(
+        "add-suggested",
+        "add keeping half the mean amplitude in reserve, at 40 cm",
+        V::Power {
+            dioptres: suggested,
+        },
+        span,
+        "add = 1/w − A/2 (w = 0.40 m), to 0.25 D, not below 0",
+        format!(
+            "1/0.40 − {}/2 = {} → {}",
+            n4(mean),
+            n4(1.0 / WORKING_DISTANCE - mean / 2.0),
+            n4(suggested)
+        ),
+        src::HALF_RESERVE,
+    )
+    .caution = Some(crate::diagnostic::GENERAL_CAUTION);
+    if let Some(add) = &e.add {
+        let (far, nearp) = near::clear_range(add.value, mean);
+        for (name, label, d) in [
+            ("clear-far", "far end of clear vision through the add", far),
+            (
+                "clear-near",
+                "near end of clear vision through the add",
+                nearp,
+            ),
+        ] {
+            let value = match d {
+                Some(m) => V::Distance {
+                    metres: -m,
+                    from: "the spectacle plane".into(),
+                },
+                None => V::Infinity,
+            };
+            out.push(
+                name,
+                label,
+                value,
+                add.span,
+                "far end 1/add, near end 1/(add + A), distance correction worn, mean amplitude",
+                format!(
+                    "add {}, A {}: 1/{} and 1/({} + {})",
+                    n4(add.value),
+                    n4(mean),
+                    n4(add.value),
+                    n4(add.value),
+                    n4(mean)
+                ),
+                src::HOFSTETTER,
+            );
+        }
+    }
+}

@@ -1,0 +1,190 @@
+//! Values of an `eye` block that compare it with other eye blocks: anisometropia
+//! against the other eye of the same visit, and the change of the refraction since
+//! the previous dated visit of the same eye, as power vectors and per year.
+
+use super::{n4, Out};
+use crate::codes;
+use crate::derived::DerivedValue as V;
+use crate::diagnostic::{Diagnostic, Severity};
+use crate::model::{Case, Eye, Side};
+use crate::sources as src;
+use parax_optics::refraction::SphCyl;
+
+fn rx(e: &Eye) -> Option<SphCyl> {
+    e.refraction
+        .as_ref()
+        .map(|r| SphCyl::new(r.value.rx.sphere, r.value.rx.cylinder, r.value.rx.axis))
+}
+
+/// Days since 1970-01-01 of a `YYYY-MM-DD` date (Howard Hinnant's days-from-civil
+/// algorithm; a dozen lines of arithmetic do not justify a date crate).
+fn days(date: &str) -> Option<i64> {
+    let mut it = date.split('-').map(|p| p.parse::<i64>().ok());
+    let (y, m, d) = (it.next()??, it.next()??, it.next()??);
+    let y = if m <= 2 { y - 1 } else { y };
+    let era = y.div_euclid(400);
+    let yoe = y - era * 400;
+    let mp = (m + 9) % 12;
+    let doy = (153 * mp + 2) / 5 + d - 1;
+    let doe = yoe * 365 + yoe / 4 - yoe / 100 + doy;
+    Some(era * 146097 + doe - 719468)
+}
+
+pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+    let Some(this) = rx(e) else { return };
+    let span = e.refraction.as_ref().map_or(e.span, |r| r.span);
+    // Anisometropia: the other eye of the same visit (same date, or both undated).
+    if let Some(other) = case
+        .eyes
+        .iter()
+        .find(|o| o.side != e.side && o.date == e.date && o.refraction.is_some())
+    {
+        let o = rx(other).expect("checked");
+        let (r, l) = if e.side == Side::Right {
+            (this, o)
+        } else {
+            (o, this)
+        };
+        let se = (r.spherical_equivalent() - l.spherical_equivalent()).abs();
+        out.push(
+            "anisometropia",
+            "anisometropia in spherical equivalent",
+            V::Power { dioptres: se },
+            span,
+            "|M_right − M_left|",
+            format!(
+                "|{} − {}| = {}",
+                n4(r.spherical_equivalent()),
+                n4(l.spherical_equivalent()),
+                n4(se)
+            ),
+            src::THIBOS_1997,
+        );
+        let mut worst: f64 = se;
+        for mer in [180.0, 90.0] {
+            let d = (r.meridian_power(mer) - l.meridian_power(mer)).abs();
+            worst = worst.max(d);
+            out.push(
+                &format!("anisometropia-{}", mer as i64),
+                &format!("anisometropia in meridian {}", mer as i64),
+                V::Power { dioptres: d },
+                span,
+                "|F_right(φ) − F_left(φ)|, F(φ) = S + C·sin²(φ − θ)",
+                format!(
+                    "|{} − {}| = {}",
+                    n4(r.meridian_power(mer)),
+                    n4(l.meridian_power(mer)),
+                    n4(d)
+                ),
+                src::POWER_MATRIX,
+            );
+        }
+        if e.side == Side::Right && worst >= 2.0 - 1e-9 {
+            diags.push(
+                Diagnostic::new(
+                    codes::ANISOMETROPIA,
+                    Severity::Info,
+                    span,
+                    format!("the eyes differ by up to {worst:.2} D"),
+                )
+                .hint("see the prism imbalance at the reading point and the aniseikonia estimate of the spectacle lenses")
+                .caution(crate::diagnostic::GENERAL_CAUTION),
+            );
+        }
+    }
+    // Change since the previous dated visit of the same eye.
+    let Some(now) = e.date.as_deref().and_then(days) else {
+        return;
+    };
+    let prev = case
+        .eyes
+        .iter()
+        .filter(|o| o.side == e.side && o.refraction.is_some())
+        .filter_map(|o| Some((o.date.as_deref().and_then(days)?, o)))
+        .filter(|(d, _)| *d < now)
+        .max_by_key(|(d, _)| *d);
+    let Some((then, before)) = prev else { return };
+    let b = rx(before).expect("checked");
+    let change = this.power_vector().sub(&b.power_vector());
+    let years = (now - then) as f64 / 365.25;
+    let since = before.date.clone().unwrap_or_default();
+    for (name, label, v) in [
+        ("change-m", "change of M since the previous visit", change.m),
+        (
+            "change-j0",
+            "change of J0 since the previous visit",
+            change.j0,
+        ),
+        (
+            "change-j45",
+            "change of J45 since the previous visit",
+            change.j45,
+        ),
+    ] {
+        out.push(
+            name,
+            label,
+            V::Power { dioptres: v },
+            span,
+            "power vector now − power vector at the previous visit",
+            format!(
+                "{} → {}: {}",
+                since,
+                e.date.clone().unwrap_or_default(),
+                n4(v)
+            ),
+            src::THIBOS_1997,
+        );
+    }
+    out.push(
+        "change-years",
+        "years since the previous visit",
+        V::Number { value: years },
+        span,
+        "days / 365.25",
+        format!("{} days / 365.25 = {}", now - then, n4(years)),
+        src::THIBOS_1997,
+    );
+    let per_year = change.m / years;
+    out.push(
+        "change-m-per-year",
+        "change of M per year",
+        V::Power { dioptres: per_year },
+        span,
+        "ΔM / years",
+        format!("{} / {} = {}", n4(change.m), n4(years), n4(per_year)),
+        src::THIBOS_1997,
+    );
+    let blur_per_year = change.blur_strength() / years;
+    out.push(
+        "change-blur-per-year",
+        "blur strength of the change per year",
+        V::Power {
+            dioptres: blur_per_year,
+        },
+        span,
+        "√(ΔM² + ΔJ0² + ΔJ45²) / years",
+        format!(
+            "{} / {} = {}",
+            n4(change.blur_strength()),
+            n4(years),
+            n4(blur_per_year)
+        ),
+        src::THIBOS_1997,
+    );
+    if blur_per_year >= 0.5 - 1e-9 {
+        diags.push(
+            Diagnostic::new(
+                codes::REFRACTION_CHANGE,
+                Severity::Info,
+                span,
+                format!(
+                    "refraction changed by {:.2} D per year (blur strength) since {since}",
+                    blur_per_year
+                ),
+            )
+            .hint("a change this fast deserves a clinical explanation (progression, lens changes, ocular disease)")
+            .caution(crate::diagnostic::GENERAL_CAUTION),
+        );
+    }
+}

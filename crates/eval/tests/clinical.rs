@@ -1,0 +1,345 @@
+//! Derived values and diagnostics of the clinical blocks (frame, spectacle-lens,
+//! contact-lens, model-eye) and of near vision, anisometropia and visits, from case
+//! snippets, against the check values of CAPABILITIES §§5-13. Each assertion names
+//! its source, provenance tag and tolerance.
+
+use parax_eval::{evaluate_source, DerivedValue as V, Evaluation};
+
+fn eval(src: &str) -> Evaluation {
+    evaluate_source(src).1
+}
+
+fn get<'a>(ev: &'a Evaluation, key: &str) -> &'a V {
+    &ev.derived
+        .iter()
+        .find(|d| d.key == key)
+        .unwrap_or_else(|| {
+            panic!(
+                "no {key}; have {:?}",
+                ev.derived.iter().map(|d| &d.key).collect::<Vec<_>>()
+            )
+        })
+        .value
+}
+
+fn num(ev: &Evaluation, key: &str) -> f64 {
+    match get(ev, key) {
+        V::Power { dioptres } | V::Prism { dioptres, .. } => *dioptres,
+        V::Number { value } => *value,
+        V::Length { metres } => *metres,
+        V::Distance { metres, .. } => *metres,
+        other => panic!("{key} is {other:?}"),
+    }
+}
+
+fn codes(ev: &Evaluation) -> Vec<&str> {
+    ev.diagnostics.iter().map(|d| d.code).collect()
+}
+
+#[track_caller]
+fn close(got: f64, want: f64, tol: f64) {
+    assert!((got - want).abs() <= tol, "got {got}, want {want} ± {tol}");
+}
+
+#[test]
+fn martin_tilt_as_worn() {
+    let ev = eval(
+        "frame\n  pantoscopic-tilt 10 deg\nspectacle-lens right\n  power +15.00\n  index 1.5\n",
+    );
+    // [S] Brooks & Borish via Martin's formula: +15.00, 10°, 2n = 3 -> +15.15 +0.47 x 180; exact [C] 15.1508 / 0.4711; tol 1e-4
+    match get(&ev, "spectacle-lens.right.as-worn") {
+        V::SphCyl {
+            sphere,
+            cylinder,
+            axis,
+        } => {
+            // minus-cylinder form of +15.1508 +0.4711 x 180
+            close(*sphere, 15.1508 + 0.4711, 1e-4);
+            close(*cylinder, -0.4711, 1e-4);
+            close(*axis, 90.0, 1e-6);
+        }
+        other => panic!("{other:?}"),
+    }
+    assert!(codes(&ev).contains(&"P0601"));
+    // [CP] optical-centre drop 0.5 mm per degree; tol 1e-12
+    close(num(&ev, "frame.oc-drop"), 0.005, 1e-12);
+}
+
+#[test]
+fn reading_point_prism_and_imbalance() {
+    let src = "frame\n  reading-drop 10 mm\nspectacle-lens right\n  power -3.00\nspectacle-lens left\n  power +1.00\n";
+    let ev = eval(src);
+    // [C] CAPABILITIES §7: OD -3.00 / OS +1.00, 10 mm down -> 3Δ BD / 1Δ BU, 4Δ imbalance; tol 1e-9
+    assert_eq!(
+        get(&ev, "spectacle-lens.right.reading-prism-vertical"),
+        &V::Prism {
+            dioptres: 3.0,
+            base: "BD".into()
+        }
+    );
+    close(
+        num(&ev, "spectacle-lens.left.reading-prism-vertical"),
+        1.0,
+        1e-9,
+    );
+    close(num(&ev, "frame.reading-vertical-imbalance"), 4.0, 1e-9);
+    let d = ev
+        .diagnostics
+        .iter()
+        .find(|d| d.code == "P0602")
+        .expect("P0602");
+    assert!(d.message.contains("slab-off"), "{}", d.message);
+}
+
+#[test]
+fn decentration_prism_base_out() {
+    let src = "eye right\n  pd 30 mm\neye left\n  pd 30 mm\nframe\n  centre-distance 68 mm\nspectacle-lens right\n  power +4.00\nspectacle-lens left\n  power +4.00\n";
+    let ev = eval(src);
+    // [C] CAPABILITIES §7: +4.00 OU, centres 4 mm too far out -> 1.6Δ BO each, 3.2Δ BO total; tol 1e-9
+    match get(&ev, "spectacle-lens.left.distance-prism-horizontal") {
+        V::Prism { dioptres, base } => {
+            close(*dioptres, 1.6, 1e-9);
+            assert_eq!(base, "BO");
+        }
+        other => panic!("{other:?}"),
+    }
+    close(
+        num(&ev, "spectacle-lens.right.distance-prism-horizontal"),
+        1.6,
+        1e-9,
+    );
+    close(num(&ev, "frame.distance-horizontal-prism"), 3.2, 1e-9);
+    assert!(
+        codes(&ev).contains(&"P0603"),
+        "3.2Δ exceeds the 3Δ rule of thumb"
+    );
+}
+
+#[test]
+fn thickness_from_exact_sags() {
+    let src = "spectacle-lens right\n  power -4.00\n  index 1.498\n  base-curve +4.00\n  centre-thickness 2.0 mm\n  blank-diameter 50 mm\n";
+    let ev = eval(src);
+    // [C] CAPABILITIES §9: -4.00, n 1.498, 50 mm, r 124.5 / 62.25 thin-lens back surface, centre 2.0 -> edge 4.7048 mm;
+    // the back surface here is solved exactly for the thickness, so tol 0.05 mm
+    close(
+        num(&ev, "spectacle-lens.right.thickness-edge") * 1000.0,
+        4.7048,
+        0.05,
+    );
+    close(
+        num(&ev, "spectacle-lens.right.thickness-centre"),
+        0.002,
+        1e-12,
+    );
+    // [CP] 1.2 mm centre on a minus CR-39 lens is below the 2.0 mm minimum
+    let thin = eval(&src.replace("2.0 mm", "1.2 mm"));
+    assert!(codes(&thin).contains(&"P0604"));
+}
+
+#[test]
+fn spectacle_magnification() {
+    let src = "frame\n  vertex 12 mm\nspectacle-lens right\n  power +4.00\n  index 1.5\n  base-curve +10.00\n  centre-thickness 5 mm\n  edge-thickness 0.3 mm\n  blank-diameter 20 mm\n";
+    let ev = eval(src);
+    // [C] CAPABILITIES §8: F1 +10, n 1.5, h 15 mm (12 + 3) -> 1.10051 when t = 5 mm; here t is computed
+    // from a 0.3 mm edge on a 20 mm blank, so compare with the formula at that t; tol 1e-9
+    let t = num(&ev, "spectacle-lens.right.thickness-centre");
+    let want = 1.0 / (1.0 - t / 1.5 * 10.0) / (1.0 - 0.015 * 4.0);
+    close(num(&ev, "spectacle-lens.right.magnification"), want, 1e-9);
+}
+
+#[test]
+fn verification_against_ansi_z80_1_2015() {
+    let src = "spectacle-lens right\n  power -2.00 / -1.00 x 90\n  measured -2.10 / -1.00 x 94\n";
+    let ev = eval(src);
+    // [S] ANSI Z80.1-2015: sphere ±0.13 (pass at 0.10), axis ±3° at 1.00 D cylinder (fail at 4°)
+    assert_eq!(
+        get(&ev, "spectacle-lens.right.check-sphere"),
+        &V::Text {
+            text: "pass".into()
+        }
+    );
+    assert_eq!(
+        get(&ev, "spectacle-lens.right.check-axis"),
+        &V::Text {
+            text: "fail".into()
+        }
+    );
+    assert_eq!(
+        get(&ev, "spectacle-lens.right.verification"),
+        &V::Text {
+            text: "fail".into()
+        }
+    );
+    let d = ev
+        .diagnostics
+        .iter()
+        .find(|d| d.code == "P0605")
+        .expect("P0605");
+    assert!(d.message.contains("87.00 to 93.00"), "{}", d.message);
+}
+
+#[test]
+fn rigid_contact_lens() {
+    let src = "eye right\n  refraction -3.00 / -1.50 x 180 @ 0 mm\n  keratometry 43.00 D @ 180, 44.00 D @ 90\ncontact-lens right\n  kind rigid\n  base-curve 7.80 mm\n";
+    let ev = eval(src);
+    // [C] CAPABILITIES §10: flat K 43.00, base curve 7.80 -> tear lens +0.269; Rx -3.00 -> -3.269; tol 1e-3
+    close(num(&ev, "contact-lens.right.tear-lens"), 0.269, 1e-3);
+    close(num(&ev, "contact-lens.right.rigid-power"), -3.269, 1e-3);
+    close(
+        num(&ev, "contact-lens.right.rigid-power-rounded"),
+        -3.25,
+        1e-9,
+    );
+    // [C] residual -1.50 x 180 minus corneal -1.00 x 180 -> -0.50 x 180; tol 1e-9
+    match get(&ev, "contact-lens.right.residual-astigmatism") {
+        V::Cylinder { dioptres, axis } => {
+            close(*dioptres, -0.5, 1e-9);
+            close(*axis, 180.0, 1e-6);
+        }
+        other => panic!("{other:?}"),
+    }
+}
+
+#[test]
+fn soft_contact_lens_and_missing_inputs() {
+    let ev =
+        eval("eye left\n  refraction -2.00 / -0.50 x 90 @ 12 mm\ncontact-lens left\n  kind soft\n");
+    // [CP] cylinder below 0.75 D: spherical soft lens of the spherical equivalent at the cornea, to 0.25 D
+    assert_eq!(
+        get(&ev, "contact-lens.left.soft-design"),
+        &V::Text {
+            text: "spherical".into()
+        }
+    );
+    let ev = eval("eye left\n  refraction -2.00\ncontact-lens left\n");
+    assert!(codes(&ev).contains(&"P0609"));
+}
+
+#[test]
+fn near_vision_by_age() {
+    let ev = eval("case\n  age 40 y\neye right\n  refraction plano\n  add +2.00\n");
+    // [S] Hofstetter: age 40 -> 5.0 / 6.5 / 9.0 D; tol 1e-9
+    close(num(&ev, "eye.right.amplitude-min"), 5.0, 1e-9);
+    close(num(&ev, "eye.right.amplitude-mean"), 6.5, 1e-9);
+    close(num(&ev, "eye.right.amplitude-max"), 9.0, 1e-9);
+    // [C] clear range through +2.00 with mean amplitude 6.5: 50 cm to 1/8.5 m; tol 1e-9
+    close(num(&ev, "eye.right.clear-far"), -0.5, 1e-9);
+    close(num(&ev, "eye.right.clear-near"), -1.0 / 8.5, 1e-9);
+    // [CP] half in reserve at 40 cm: 2.5 - 3.25 < 0 -> 0
+    close(num(&ev, "eye.right.add-suggested"), 0.0, 1e-9);
+}
+
+#[test]
+fn visits_and_anisometropia() {
+    let src = "eye right 2024-01-10\n  refraction -1.00\neye right 2026-01-09\n  refraction -2.00 / -0.50 x 180\neye left 2026-01-09\n  refraction +1.00\n";
+    let ev = eval(src);
+    // [C] Thibos 1997 vectors: M -2.25 - (-1.00) = -1.25, J0 +0.25; 730 days = 1.9986 y; tol 1e-4
+    close(num(&ev, "eye.right.2026-01-09.change-m"), -1.25, 1e-9);
+    close(num(&ev, "eye.right.2026-01-09.change-j0"), 0.25, 1e-9);
+    close(
+        num(&ev, "eye.right.2026-01-09.change-years"),
+        730.0 / 365.25,
+        1e-9,
+    );
+    assert!(codes(&ev).contains(&"P0608"));
+    // [C] anisometropia |M_R − M_L| = |-2.25 − 1.00| = 3.25 and in meridian 90: |-2.50 − 1.00| = 3.50
+    close(num(&ev, "eye.right.2026-01-09.anisometropia"), 3.25, 1e-9);
+    close(num(&ev, "eye.right.2026-01-09.anisometropia-90"), 3.5, 1e-9);
+    assert!(codes(&ev).contains(&"P0607"));
+}
+
+#[test]
+fn model_eyes_and_overrides() {
+    let ev = eval("model-eye \"g\"\n  from gullstrand\nmodel-eye \"r\"\n  from emsley\n  axial-length 24 mm\n  expect ocular-refraction -4.44\n");
+    // [S] Atchison & Smith (2000): Gullstrand exact eye 58.64 D, cornea 43.05 D, lens 19.11 D; tol 0.01
+    close(num(&ev, "model-eye.g.power"), 58.64, 0.01);
+    close(num(&ev, "model-eye.g.cornea-power"), 43.05, 0.01);
+    close(num(&ev, "model-eye.g.lens-power"), 19.11, 0.01);
+    // [S] P' at 1.602 mm, F' at 24.385 mm from the cornea; tol 0.002 mm
+    close(
+        num(&ev, "model-eye.g.back-principal") * 1000.0,
+        1.602,
+        0.002,
+    );
+    close(num(&ev, "model-eye.g.back-focal") * 1000.0, 24.385, 0.002);
+    // [C] reduced eye at 24 mm: K = (4/3)/0.024 − 60 = −4.4444; spectacle at 12 mm: K/(1 + 0.012K); tol 1e-4
+    let k = num(&ev, "model-eye.r.ocular-refraction");
+    close(k, -4.4444, 1e-4);
+    close(
+        num(&ev, "model-eye.r.spectacle-refraction"),
+        k / (1.0 + 0.012 * k),
+        1e-9,
+    );
+    assert!(!ev.has_errors(), "{:#?}", ev.diagnostics);
+    // an override of a surface the model lacks is an error
+    let bad = eval("model-eye \"x\"\n  from emsley\n  surface 2 radius 6 mm\n");
+    assert!(bad.has_errors());
+}
+
+#[test]
+fn intraocular_lens_power() {
+    let src = "eye right\n  axial-length 23.5 mm\n  keratometry 44.00 D @ 180, 44.00 D @ 90\n  iol-constant 118.4\n  iol-elp 5.0 mm\n";
+    let ev = eval(src);
+    // [C] CAPABILITIES §12, SRK/T (Retzlaff, Sanders & Kraff 1990): L 23.5, K 44.00, A 118.4 -> 20.041 D; tol 2e-3
+    close(num(&ev, "eye.right.iol-power-srkt"), 20.041, 2e-3);
+    // [C] CAPABILITIES §12 vergence formula: ELP 5.0 -> 19.542 D; tol 2e-3
+    close(num(&ev, "eye.right.iol-power-vergence"), 19.542, 2e-3);
+    let d = ev
+        .diagnostics
+        .iter()
+        .find(|d| d.code == "P0610")
+        .expect("P0610");
+    assert_eq!(d.severity, parax_eval::Severity::Info);
+    // [C] myopic target -0.50 -> 20.759 D; and the predicted refraction of that lens is the target; tol 2e-3
+    let ev = eval(&format!("{src}  iol-target -0.50\n  iol-power 20.759\n"));
+    close(num(&ev, "eye.right.iol-power-srkt"), 20.759, 2e-3);
+    close(num(&ev, "eye.right.iol-predicted-refraction"), -0.5, 2e-3);
+    // after refractive surgery the note becomes a warning
+    let ev = eval(&format!("{src}  refractive-surgery \"LASIK 2012\"\n"));
+    let d = ev
+        .diagnostics
+        .iter()
+        .find(|d| d.code == "P0610")
+        .expect("P0610");
+    assert_eq!(d.severity, parax_eval::Severity::Warning);
+}
+
+#[test]
+fn system_with_surfaces_is_a_thick_lens() {
+    let ev = eval("system \"t\"\n  surface S1 62.5 mm index 1.5\n  gap 6 mm index 1.5\n  surface S2 250 mm index 1\n");
+    // [C] CAPABILITIES §4: thick lens F1 +8, F2 −2, t 6 mm, n 1.5 -> F 6.0640, BVP 6.2645, FVP 6.0159; tol 1e-4
+    close(num(&ev, "system.t.equivalent-power"), 6.0640, 1e-4);
+    close(num(&ev, "system.t.back-vertex-power"), 6.2645, 1e-4);
+    close(num(&ev, "system.t.front-vertex-power"), 6.0159, 1e-4);
+    // [C] surface power (n' − n)/r: S2 = (1 − 1.5)/0.25 = −2: the vergence leaving S2 is 8.2645 − 2; tol 1e-4
+    close(num(&ev, "system.t.S2.vergence-out"), 6.2645, 1e-4);
+    assert!(!ev.has_errors(), "{:#?}", ev.diagnostics);
+}
+
+#[test]
+fn add_and_prism_verification() {
+    let src = "spectacle-lens left\n  power +1.00\n  add +2.50\n  measured-add +2.75\n  measured-prism 0.25Δ BU\n";
+    let ev = eval(src);
+    // [S] ANSI Z80.1-2015: add ±0.12 D up to 4.00 (0.25 off fails); unwanted prism ≤ 0.33Δ (0.25Δ passes)
+    assert_eq!(
+        get(&ev, "spectacle-lens.left.check-add"),
+        &V::Text {
+            text: "fail".into()
+        }
+    );
+    assert_eq!(
+        get(&ev, "spectacle-lens.left.check-prism"),
+        &V::Text {
+            text: "pass".into()
+        }
+    );
+    // [S] a prescribed 2Δ BI measured as 1.5Δ BI is 0.5Δ off: fails the 0.33Δ tolerance
+    let ev = eval("spectacle-lens right\n  power -1.00\n  prism 2Δ BI\n  measured-prism 1.5Δ BI\n");
+    assert_eq!(
+        get(&ev, "spectacle-lens.right.check-prism"),
+        &V::Text {
+            text: "fail".into()
+        }
+    );
+    assert!(codes(&ev).contains(&"P0605"));
+}

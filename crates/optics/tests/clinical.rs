@@ -1,0 +1,252 @@
+//! Clinical optics (tilt, prism, lens form, verification, contact lenses, near,
+//! model eyes, IOL) against the check values of CAPABILITIES §§5-13, each with
+//! its source, provenance tag and tolerance.
+
+#[macro_use]
+mod common;
+
+use parax_optics::contact::*;
+use parax_optics::iol::*;
+use parax_optics::lens_form::*;
+use parax_optics::model_eye::{self, Schematic};
+use parax_optics::near::*;
+use parax_optics::prism::{self, prentice, Eye};
+use parax_optics::refraction::SphCyl;
+use parax_optics::tilt::{self, martin, Tilt};
+use parax_optics::verify::{self, verify as check_lens};
+
+#[test]
+fn martin_formula_checks() {
+    // [S] Brooks & Borish, System for Ophthalmic Dispensing: +15.00, 10°, 2n = 3 -> +15.15 +0.47 x 180; tol 0.005
+    let (s, c) = martin(15.0, 10.0, 1.5);
+    assert_close!(s, 15.15, 0.005);
+    assert_close!(c, 0.47, 0.005);
+    // [C] CAPABILITIES §6, exact 15.1508 / 0.4711; tol 1e-4
+    assert_close!(s, 15.1508, 1e-4);
+    assert_close!(c, 0.4711, 1e-4);
+    // [C] CAPABILITIES §6, -8.00, 12°, n 1.498 -> -8.1154 -0.3667 x 180; tol 1e-4
+    let (s, c) = martin(-8.0, 12.0, 1.498);
+    assert_close!(s, -8.1154, 1e-4);
+    assert_close!(c, -0.3667, 1e-4);
+}
+
+#[test]
+fn matrix_tilt_reduces_to_martin() {
+    // [C] CAPABILITIES §6: pantoscopic tilt of a sphere, matrix form = Martin (plus-cyl axis 180); tol 1e-4
+    let t = Tilt {
+        pantoscopic_deg: 10.0,
+        face_form_deg: 0.0,
+    };
+    let w = tilt::as_worn(&SphCyl::new(15.0, 0.0, 180.0), t, 1.5).plus_cyl();
+    assert_close!(w.sphere, 15.1508, 1e-4);
+    assert_close!(w.cylinder, 0.4711, 1e-4);
+    assert_close!(w.axis, 180.0, 1e-6);
+    // [C] CAPABILITIES §6: -6.00, 20° wrap, n 1.586 -> -6.2213 -0.8242 x 90; tol 1e-4
+    let t = Tilt {
+        pantoscopic_deg: 0.0,
+        face_form_deg: 20.0,
+    };
+    let w = tilt::as_worn(&SphCyl::new(-6.0, 0.0, 180.0), t, 1.586).minus_cyl();
+    assert_close!(w.sphere, -6.2213, 1e-4);
+    assert_close!(w.cylinder, -0.8242, 1e-4);
+    assert_close!(w.axis, 90.0, 1e-6);
+}
+
+#[test]
+fn compensated_order_inverts_tilt() {
+    // [C] exact inverse: as_worn(compensated(rx)) = rx for a spherocylinder; tol 1e-9
+    let t = Tilt {
+        pantoscopic_deg: 12.0,
+        face_form_deg: 6.0,
+    };
+    let rx = SphCyl::new(-4.25, -1.5, 25.0);
+    let order = tilt::compensated(&rx, t, 1.6);
+    let back = tilt::as_worn(&order, t, 1.6);
+    let (a, b) = (rx.power_vector(), back.power_vector());
+    assert_close!(a.m, b.m, 1e-9);
+    assert_close!(a.j0, b.j0, 1e-9);
+    assert_close!(a.j45, b.j45, 1e-9);
+    // [CP] optical centre drop 0.5 mm per degree of pantoscopic tilt: 10° -> 5 mm; tol 1e-12
+    assert_close!(tilt::optical_centre_drop(10.0), 0.005, 1e-12);
+}
+
+#[test]
+fn prentice_checks() {
+    // [C] CAPABILITIES §7: OD -3.00 / OS +1.00 DS, 10 mm down -> 3Δ BD / 1Δ BU, 4Δ imbalance; tol 1e-9
+    let r = prentice(&SphCyl::new(-3.0, 0.0, 180.0), Eye::Right, 0.0, -0.010);
+    let l = prentice(&SphCyl::new(1.0, 0.0, 180.0), Eye::Left, 0.0, -0.010);
+    assert_close!(r.base_up, -3.0, 1e-9);
+    assert_close!(l.base_up, 1.0, 1e-9);
+    assert_close!(prism::vertical_imbalance(&r, &l), 4.0, 1e-9);
+    // [C] CAPABILITIES §7: OD -2.00 -1.50 x 30, 10 mm down -> 3.125Δ BD, 0.650Δ horizontal; tol 1e-3
+    let p = prentice(&SphCyl::new(-2.0, -1.5, 30.0), Eye::Right, 0.0, -0.010);
+    assert_close!(p.base_up, -3.125, 1e-3);
+    assert_close!(p.base_in.abs(), 0.6495, 1e-3);
+    // [C] CAPABILITIES §7: +4.00 OU, centres 4 mm too far out (pupil 4 mm nasal) -> 1.6Δ BO each, 3.2Δ; tol 1e-9
+    let r = prentice(&SphCyl::new(4.0, 0.0, 180.0), Eye::Right, 0.004, 0.0);
+    let l = prentice(&SphCyl::new(4.0, 0.0, 180.0), Eye::Left, 0.004, 0.0);
+    assert_close!(r.base_in, -1.6, 1e-9);
+    assert_close!(l.base_in, -1.6, 1e-9);
+    assert_close!(prism::horizontal_net(&r, &l), -3.2, 1e-9);
+}
+
+#[test]
+fn sag_and_edge_checks() {
+    // [S] J. Loomis, Univ. of Dayton course notes "Sags and Edge Thickness": curvatures 0.0104227
+    // and -0.0406946 1/mm, semi-aperture 9 mm, centre 3.0486 mm -> edge 0.918096 mm; tol 1e-5 mm
+    let e = edge_from_centre(3.0486, 1.0 / 0.0104227, -1.0 / 0.0406946, 9.0).unwrap();
+    assert_close!(e, 0.918096, 1e-5);
+    // [C] CAPABILITIES §9: -4.00, n 1.498, 50 mm blank, r 124.5 / 62.25, centre 2.0 -> edge 4.7048 mm; tol 1e-4
+    let e = edge_from_centre(2.0, 124.5, 62.25, 25.0).unwrap();
+    assert_close!(e, 4.7048, 1e-4);
+    // [C] approximate sag y²F/(2000(n-1)) within 3% of the exact sag for a 4 D surface at 25 mm; tol 3%
+    let exact = sag(front_radius(4.0, 1.498), 0.025).unwrap() * 1000.0;
+    let approx = 25.0 * 25.0 * 4.0 / (2000.0 * 0.498);
+    assert_close!(approx / exact, 1.0, 0.03);
+}
+
+#[test]
+fn thickness_solver() {
+    // [C] minus lens keeps the minimum centre; its edge matches the exact-sag check above
+    // when the back surface is the thin-lens -8.00 D (t -> 0 limit of F2); tol 0.05 mm
+    let t = thickness(-4.0, 4.0, 1.498, 0.025, 0.002, 0.001).unwrap();
+    assert_close!(t.centre, 0.002, 1e-12);
+    assert_close!(t.edge * 1000.0, 4.7048, 0.05);
+    // [C] plus lens: centre found so the edge is exactly the minimum; tol 1e-7 m
+    let t = thickness(4.0, 8.0, 1.5, 0.025, 0.002, 0.001).unwrap();
+    assert_close!(t.edge, 0.001, 1e-7);
+    // [C] CAPABILITIES §9 approximate sag: centre - edge ≈ y²F/(2000(n-1)) = 2.5 mm; tol 0.2 mm
+    assert_close!((t.centre - t.edge) * 1000.0, 2.5, 0.2);
+}
+
+#[test]
+fn spectacle_magnification_checks() {
+    // [C] CAPABILITIES §8: +4.00 (F1 +10, t 5 mm, n 1.5, h 15 mm) -> 1.10051; tol 1e-5
+    let (_, _, sm) = spectacle_magnification(10.0, 0.005, 1.5, 4.0, 0.015);
+    assert_close!(sm, 1.10051, 1e-5);
+    // [C] CAPABILITIES §8: -4.00 (F1 +4, t 2 mm, n 1.5, h 15 mm) -> 0.948455; tol 1e-6
+    let (_, _, sm) = spectacle_magnification(4.0, 0.002, 1.5, -4.0, 0.015);
+    assert_close!(sm, 0.948455, 1e-6);
+}
+
+#[test]
+fn ansi_z80_1_2015_table() {
+    // [S] ANSI Z80.1-2015 quick reference: sphere ±0.13 to 6.50 D, ±2% beyond; tol 1e-12
+    assert_close!(verify::sphere_tolerance(-6.5), 0.13, 1e-12);
+    assert_close!(verify::sphere_tolerance(10.0), 0.2, 1e-12);
+    // [S] cylinder ±0.13 (≤2.00), ±0.15 (≤4.50), ±4% beyond
+    assert_close!(verify::cylinder_tolerance(-2.0), 0.13, 1e-12);
+    assert_close!(verify::cylinder_tolerance(-4.5), 0.15, 1e-12);
+    assert_close!(verify::cylinder_tolerance(-5.0), 0.2, 1e-12);
+    // [S] axis ±14/7/5/3/2 degrees by cylinder
+    assert_eq!(verify::axis_tolerance(-0.25), Some(14.0));
+    assert_eq!(verify::axis_tolerance(-0.5), Some(7.0));
+    assert_eq!(verify::axis_tolerance(-0.75), Some(5.0));
+    assert_eq!(verify::axis_tolerance(-1.5), Some(3.0));
+    assert_eq!(verify::axis_tolerance(-1.75), Some(2.0));
+    assert_eq!(verify::axis_tolerance(0.0), None);
+    // [S] add ±0.12 (≤4.00), ±0.18 beyond
+    assert_close!(verify::add_tolerance(2.5), 0.12, 1e-12);
+    assert_close!(verify::add_tolerance(4.5), 0.18, 1e-12);
+    // [C] a lens 0.10 D strong in sphere passes, 4° off at -1.00 cylinder fails (±3°)
+    let v = check_lens(
+        &SphCyl::new(-2.0, -1.0, 90.0),
+        &SphCyl::new(-2.1, -1.0, 94.0),
+    );
+    assert!(v.sphere.passes() && v.cylinder.passes());
+    assert!(!v.axis.unwrap().passes());
+    assert_close!(v.axis.unwrap().deviation(), 4.0, 1e-9);
+    // [C] axis wrap: ordered 178, measured 2 -> 4° deviation
+    let v = check_lens(&SphCyl::new(1.0, -0.5, 178.0), &SphCyl::new(1.0, -0.5, 2.0));
+    assert_close!(v.axis.unwrap().deviation(), 4.0, 1e-9);
+}
+
+#[test]
+fn contact_lens_checks() {
+    // [C] CAPABILITIES §10: flat K 43.00, base curve 7.80 mm -> tear lens +0.269 D; tol 1e-3
+    let tear = tear_lens(0.0078, 43.0);
+    assert_close!(tear, 0.269, 1e-3);
+    // [C] Rx -3.00 -> -3.269 D; tol 1e-3
+    assert_close!(
+        rigid_power(&SphCyl::new(-3.0, 0.0, 180.0), 180.0, tear),
+        -3.269,
+        1e-3
+    );
+    // [C] Rx -3.00 -1.50 x 180, corneal cyl -1.00 x 180 -> residual -0.50 x 180; tol 1e-9
+    let (c, a) = residual_astigmatism(
+        &SphCyl::new(-3.0, -1.5, 180.0),
+        &corneal_cylinder(43.0, 180.0, 44.0),
+    );
+    assert_close!(c, -0.5, 1e-9);
+    assert_close!(a, 180.0, 1e-6);
+    // [CP] toric suggested from 0.75 D
+    assert!(soft_is_toric(&SphCyl::new(-2.0, -0.75, 10.0)));
+    assert!(!soft_is_toric(&SphCyl::new(-2.0, -0.5, 10.0)));
+}
+
+#[test]
+fn near_checks() {
+    // [S] Hofstetter 1950 formulas: age 40 -> 5.0 / 6.5 / 9.0 D; age 50 -> 2.5 / 3.5 / 5.0; tol 1e-9
+    let (a, b, c) = hofstetter(40.0);
+    assert_close!(a, 5.0, 1e-9);
+    assert_close!(b, 6.5, 1e-9);
+    assert_close!(c, 9.0, 1e-9);
+    let (a, b, c) = hofstetter(50.0);
+    assert_close!(a, 2.5, 1e-9);
+    assert_close!(b, 3.5, 1e-9);
+    assert_close!(c, 5.0, 1e-9);
+    // [C] A 1.00 with +2.00 add -> clear 33.3-50 cm; tol 1e-3 m
+    let (far, near) = clear_range(2.0, 1.0);
+    assert_close!(far.unwrap(), 0.5, 1e-3);
+    assert_close!(near.unwrap(), 0.3333, 1e-3);
+    // [CP] half in reserve: 40 cm with A 1.00 -> +2.00
+    assert_close!(add_keeping_half(0.4, 1.0), 2.0, 1e-9);
+}
+
+#[test]
+fn schematic_eye_totals() {
+    // [S] Atchison & Smith (2000): Gullstrand exact eye 58.64 D, F' at 24.385 mm; tol 0.01 D / 0.005 mm
+    let g = model_eye::evaluate(&Schematic::GullstrandExact.surfaces());
+    assert_close!(g.power, 58.64, 0.01);
+    assert_close!(g.back_focal_from_cornea.unwrap() * 1000.0, 24.385, 0.005);
+    // [S] principal points P 1.348, P' 1.602 mm from the cornea; tol 0.002 mm
+    let c = g.cardinal.unwrap();
+    assert_close!(c.front_principal * 1000.0, 1.348, 0.002);
+    // [S] Le Grand full theoretical 59.940 D, F' 24.197 mm; tol 1e-3 D / 0.002 mm
+    let l = model_eye::evaluate(&Schematic::LeGrandFull.surfaces());
+    assert_close!(l.power, 59.940, 1e-3);
+    assert_close!(l.back_focal_from_cornea.unwrap() * 1000.0, 24.197, 0.002);
+    // [C] each published eye is emmetropic at its own axial length (retina at F'); tol 0.05 D
+    for m in Schematic::ALL {
+        let r = model_eye::evaluate(&m.surfaces());
+        assert_close!(r.ocular_refraction, 0.0, 0.05);
+    }
+    // [M] Emsley reduced eye: 60.000 D, axial length 22.222 mm; tol 1e-3
+    let e = Schematic::EmsleyReduced.surfaces();
+    assert_close!(model_eye::evaluate(&e).power, 60.0, 1e-3);
+    assert_close!(model_eye::axial_length(&e) * 1000.0, 22.222, 1e-3);
+}
+
+#[test]
+fn refraction_from_axial_length() {
+    // [C] reduced eye 60 D, n' 4/3: AL 24 mm -> K = n'/AL' - F = 1333.33/24 - 60 = -4.4444 D; tol 1e-4
+    let mut e = Schematic::EmsleyReduced.surfaces();
+    model_eye::with_axial_length(&mut e, 0.024);
+    let r = model_eye::evaluate(&e);
+    assert_close!(r.ocular_refraction, 4.0 / 3.0 / 0.024 - 60.0, 1e-4);
+    // [C] CAPABILITIES §2 inverse of Fc = Fs/(1 - dFs): spectacle at 12 mm; tol 1e-9
+    let fs = model_eye::spectacle_refraction(r.ocular_refraction, 0.012);
+    assert_close!(fs / (1.0 - 0.012 * fs), r.ocular_refraction, 1e-9);
+}
+
+#[test]
+fn iol_checks() {
+    // [C] CAPABILITIES §12 vergence formula: AL 23.5, K 44.00, ELP 5.0 -> 19.542 D; tol 2e-3
+    assert_close!(vergence_power(23.5, 44.0, 5.0, 0.0, 12.0), 19.542, 2e-3);
+    // [C] SRK/T (Retzlaff, Sanders & Kraff 1990): L 23.5, K 44.00, A 118.4 -> 20.041 D; target -0.50 -> 20.759 D; tol 2e-3
+    assert_close!(srkt_power(23.5, 44.0, 118.4, 0.0), 20.041, 2e-3);
+    assert_close!(srkt_power(23.5, 44.0, 118.4, -0.5), 20.759, 2e-3);
+    // [C] predicted refraction inverts the power formula; tol 1e-9
+    let p = srkt_power(23.5, 44.0, 118.4, -0.5);
+    assert_close!(srkt_refraction(23.5, 44.0, 118.4, p), -0.5, 1e-9);
+}
