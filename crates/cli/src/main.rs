@@ -3,6 +3,7 @@
 //! and sets the exit status (0 clean, 1 errors or failed `expect`, 2 usage or I/O).
 
 mod check;
+mod diff_cmd;
 mod eval_cmd;
 mod files;
 mod fmt_cmd;
@@ -70,6 +71,22 @@ enum Command {
         #[arg(long)]
         check: bool,
     },
+    /// Compare two versions of a case file: changed inputs and the derived values that moved.
+    #[command(after_help = CAUTION_HELP)]
+    Diff {
+        /// The old version: a file, or `REV:PATH` read with `git show`.
+        old: String,
+        /// The new version: a file, or `REV:PATH`.
+        new: String,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = diff_cmd::DiffFormat::Human)]
+        format: diff_cmd::DiffFormat,
+    },
+    /// Print a case file followed by its derived values, one per line (a git textconv driver).
+    View {
+        /// The case file (`-` reads standard input).
+        file: PathBuf,
+    },
 }
 
 fn main() -> ExitCode {
@@ -87,6 +104,8 @@ fn main() -> ExitCode {
             quiet,
         } => eval_cmd::run(&file, format, explain, quiet),
         Command::Fmt { paths, check } => fmt_cmd::run(&paths, check),
+        Command::Diff { old, new, format } => diff_cmd::run(&old, &new, format),
+        Command::View { file } => diff_cmd::view(&file),
     };
     ExitCode::from(code)
 }

@@ -1,0 +1,171 @@
+//! End-to-end tests of the review and research commands: `diff`, `view` (also as
+//! a real git textconv driver), `check --format sarif`, batch `eval`, `stats` and
+//! `render`. Outputs are snapshotted; every command runs in the workspace root.
+
+use std::path::{Path, PathBuf};
+use std::process::{Command, Output, Stdio};
+
+const ROOT: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/../..");
+const BIN: &str = env!("CARGO_BIN_EXE_parax");
+
+fn parax_in(dir: &Path, args: &[&str]) -> Output {
+    Command::new(BIN)
+        .args(args)
+        .current_dir(dir)
+        .stdin(Stdio::null())
+        .output()
+        .expect("the parax binary runs")
+}
+
+fn parax(args: &[&str]) -> Output {
+    parax_in(Path::new(ROOT), args)
+}
+
+fn code(o: &Output) -> i32 {
+    o.status.code().expect("exited normally")
+}
+
+fn stdout(o: &Output) -> String {
+    String::from_utf8(o.stdout.clone()).expect("UTF-8 stdout")
+}
+
+fn stderr(o: &Output) -> String {
+    String::from_utf8(o.stderr.clone()).expect("UTF-8 stderr")
+}
+
+/// A fresh folder under the system temp dir, unique to this process and test.
+fn temp_dir(name: &str) -> PathBuf {
+    let d = std::env::temp_dir().join(format!("parax-review-{}-{name}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&d);
+    std::fs::create_dir_all(&d).expect("temp dir");
+    d
+}
+
+fn git(dir: &Path, args: &[&str]) -> String {
+    let o = Command::new("git")
+        .args(args)
+        .current_dir(dir)
+        .env("GIT_CONFIG_NOSYSTEM", "1")
+        .env("HOME", dir)
+        .env("GIT_AUTHOR_NAME", "Test")
+        .env("GIT_AUTHOR_EMAIL", "test@example.invalid")
+        .env("GIT_COMMITTER_NAME", "Test")
+        .env("GIT_COMMITTER_EMAIL", "test@example.invalid")
+        .output()
+        .expect("git runs");
+    assert!(
+        o.status.success(),
+        "git {args:?}: {}",
+        String::from_utf8_lossy(&o.stderr)
+    );
+    String::from_utf8(o.stdout).expect("UTF-8")
+}
+
+const CHANGED: &str = "crates/cli/tests/data/clinic-review-changed.parax";
+
+#[test]
+fn diff_human_and_json() {
+    let o = parax(&["diff", "examples/clinic-review.parax", CHANGED]);
+    assert_eq!(code(&o), 1, "something changed: {}", stderr(&o));
+    let out = stdout(&o);
+    // [C] Thibos 1997: SE of -6.00/-1.50 is -6.75 D; of -5.75/-1.50, -6.50 D.
+    assert!(out.contains("spherical-equivalent   -6.50 D  ->  -6.75 D   (change -0.25 D)"));
+    insta::assert_snapshot!("diff_human", out);
+    let o = parax(&[
+        "diff",
+        "--format",
+        "json",
+        "examples/clinic-review.parax",
+        CHANGED,
+    ]);
+    assert_eq!(code(&o), 1);
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).expect("JSON");
+    assert_eq!(v["blocks"][0]["block"], "eye right");
+    insta::assert_snapshot!("diff_json", stdout(&o));
+}
+
+#[test]
+fn diff_of_identical_files_is_empty_and_exits_zero() {
+    let o = parax(&[
+        "diff",
+        "examples/eye-model.parax",
+        "examples/eye-model.parax",
+    ]);
+    assert_eq!(code(&o), 0);
+    assert!(stdout(&o).contains("no change in inputs or derived values"));
+}
+
+#[test]
+fn diff_missing_file_exits_two() {
+    let o = parax(&["diff", "examples/none.parax", "examples/eye-model.parax"]);
+    assert_eq!(code(&o), 2);
+    assert!(stderr(&o).contains("examples/none.parax"));
+}
+
+#[test]
+fn view_prints_source_then_values_and_raw_text_on_errors() {
+    let o = parax(&["view", "examples/bench-relay.parax"]);
+    assert_eq!(code(&o), 0);
+    let src = std::fs::read_to_string(Path::new(ROOT).join("examples/bench-relay.parax")).unwrap();
+    let out = stdout(&o);
+    assert!(out.starts_with(&src));
+    assert!(out.contains("# system.two-lens-bench-relay.equivalent-power = +4.00 D\n"));
+    let dir = temp_dir("view");
+    let bad = "eye right\n  refraction -2 @@ ~~\n";
+    std::fs::write(dir.join("bad.parax"), bad).unwrap();
+    std::fs::write(dir.join("binary.parax"), [0xffu8, 0xfe, 0x00, 0x41]).unwrap();
+    let o = parax_in(&dir, &["view", "bad.parax"]);
+    assert_eq!(code(&o), 0);
+    assert_eq!(stdout(&o), bad);
+    let o = parax_in(&dir, &["view", "binary.parax"]);
+    assert_eq!(code(&o), 0);
+    assert_eq!(o.stdout, vec![0xffu8, 0xfe, 0x00, 0x41]);
+}
+
+/// The README's setup: `.gitattributes` + `git config diff.parax.textconv`, then a
+/// real `git diff` and `git log -p` show the derived values that moved; a file
+/// that does not parse still diffs.
+#[test]
+fn git_textconv_shows_moved_values() {
+    let dir = temp_dir("git");
+    git(&dir, &["init", "-q"]);
+    std::fs::write(dir.join(".gitattributes"), "*.parax diff=parax\n").unwrap();
+    git(
+        &dir,
+        &["config", "diff.parax.textconv", &format!("'{BIN}' view")],
+    );
+    let original =
+        std::fs::read_to_string(Path::new(ROOT).join("examples/clinic-review.parax")).unwrap();
+    std::fs::write(dir.join("case.parax"), &original).unwrap();
+    git(&dir, &["add", "."]);
+    git(&dir, &["commit", "-q", "-m", "first"]);
+    let changed = original.replace("-5.75 / -1.50 x 175 @ 12 mm", "-6.00 / -1.50 x 175 @ 12 mm");
+    std::fs::write(dir.join("case.parax"), &changed).unwrap();
+    let d = git(&dir, &["diff"]);
+    assert!(
+        d.contains("-# eye.right.spherical-equivalent = -6.50 D"),
+        "{d}"
+    );
+    assert!(
+        d.contains("+# eye.right.spherical-equivalent = -6.75 D"),
+        "{d}"
+    );
+    assert!(
+        d.contains("+  refraction -6.00 / -1.50 x 175 @ 12 mm"),
+        "{d}"
+    );
+    git(&dir, &["commit", "-q", "-am", "second"]);
+    let log = git(&dir, &["log", "-p"]);
+    assert!(
+        log.contains("+# eye.right.spherical-equivalent = -6.75 D"),
+        "{log}"
+    );
+    // `parax diff REV:path path` reads the old version with git.
+    let o = parax_in(&dir, &["diff", "HEAD~1:case.parax", "case.parax"]);
+    assert_eq!(code(&o), 1, "{}", stderr(&o));
+    assert!(stdout(&o).contains("-6.50 D  ->  -6.75 D"));
+    // A broken file: git still shows a diff (the raw text) and does not fail.
+    std::fs::write(dir.join("case.parax"), "eye right\n  refraction @@ ~~\n").unwrap();
+    let d = git(&dir, &["diff"]);
+    assert!(d.contains("+  refraction @@ ~~"), "{d}");
+}
