@@ -24,7 +24,7 @@ pub fn run(path: &Path, format: Format, explain: bool, quiet: bool) -> u8 {
                 serde_json::to_string_pretty(&v).expect("JSON of plain values")
             );
         }
-        Format::Human => {
+        Format::Human | Format::Sarif => {
             print!("{}", human::derived_table(&parsed, &ev.derived, explain));
             if ev.derived.is_empty() {
                 println!("(no derived values: record a refraction, keratometry or a lens system)");

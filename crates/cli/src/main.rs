@@ -32,6 +32,8 @@ pub enum Format {
     Human,
     /// For programs (keys documented in docs/notation.md and docs/cli.md).
     Json,
+    /// SARIF 2.1.0, for code-review systems (`parax check` only).
+    Sarif,
 }
 
 #[derive(Subcommand, Debug)]

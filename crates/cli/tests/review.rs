@@ -169,3 +169,75 @@ fn git_textconv_shows_moved_values() {
     let d = git(&dir, &["diff"]);
     assert!(d.contains("+  refraction @@ ~~"), "{d}");
 }
+
+#[test]
+fn sarif_log_of_a_file_with_mistakes() {
+    let o = parax(&[
+        "check",
+        "--format",
+        "sarif",
+        "crates/cli/tests/data/mistakes.parax",
+    ]);
+    assert_eq!(code(&o), 1, "the file has errors");
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).expect("JSON");
+    assert_eq!(v["version"], "2.1.0");
+    let run = &v["runs"][0];
+    let rules = run["tool"]["driver"]["rules"].as_array().unwrap();
+    assert_eq!(rules.len(), parax_eval::codes::ALL.len());
+    let results = run["results"].as_array().unwrap();
+    assert!(!results.is_empty());
+    for r in results {
+        let id = r["ruleId"].as_str().unwrap();
+        let idx = r["ruleIndex"].as_u64().unwrap() as usize;
+        assert_eq!(rules[idx]["id"], id, "ruleIndex points at the rule");
+        let loc = &r["locations"][0]["physicalLocation"];
+        assert_eq!(
+            loc["artifactLocation"]["uri"], "crates/cli/tests/data/mistakes.parax",
+            "repository-relative"
+        );
+        assert!(loc["region"]["startLine"].as_u64().unwrap() >= 1);
+        assert!(loc["region"]["startColumn"].as_u64().unwrap() >= 1);
+        assert!(r["partialFingerprints"]["paraxLineHash/v1"].is_string());
+    }
+    // The missing unit of `12` on line 4 (`  refraction -6.50 / -1.00 x 90 @ 12`),
+    // columns counted from 1.
+    assert!(results.iter().any(|r| r["ruleId"] == "P0201"
+        && r["locations"][0]["physicalLocation"]["region"]["startLine"] == 4
+        && r["locations"][0]["physicalLocation"]["region"]["startColumn"] == 35));
+    insta::assert_snapshot!("sarif_mistakes", stdout(&o));
+}
+
+#[test]
+fn sarif_fingerprints_survive_lines_moving() {
+    let dir = temp_dir("sarif-move");
+    let src = std::fs::read_to_string(Path::new(ROOT).join("crates/cli/tests/data/mistakes.parax"))
+        .unwrap();
+    std::fs::write(dir.join("a.parax"), &src).unwrap();
+    let fp = |dir: &Path| -> Vec<String> {
+        let o = parax_in(dir, &["check", "--format", "sarif", "a.parax"]);
+        let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+        let mut f: Vec<String> = v["runs"][0]["results"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .map(|r| {
+                r["partialFingerprints"]["paraxLineHash/v1"]
+                    .as_str()
+                    .unwrap()
+                    .to_owned()
+            })
+            .collect();
+        f.sort();
+        f
+    };
+    let before = fp(&dir);
+    std::fs::write(dir.join("a.parax"), format!("# a new first line\n\n{src}")).unwrap();
+    assert_eq!(before, fp(&dir));
+}
+
+#[test]
+fn sarif_log_of_the_examples() {
+    let o = parax(&["check", "--format", "sarif", "examples"]);
+    assert_eq!(code(&o), 0);
+    insta::assert_snapshot!("sarif_examples", stdout(&o));
+}
