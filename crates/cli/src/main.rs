@@ -2,6 +2,7 @@
 //! value and finding comes from `parax-eval`; this crate only finds files, renders
 //! and sets the exit status (0 clean, 1 errors or failed `expect`, 2 usage or I/O).
 
+mod batch;
 mod check;
 mod diff_cmd;
 mod eval_cmd;
@@ -36,6 +37,19 @@ pub enum Format {
     Sarif,
 }
 
+/// Output formats of `parax eval`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum EvalFormat {
+    /// For people (one file).
+    Human,
+    /// For programs (one file).
+    Json,
+    /// One row per eye and system, comma-separated (any number of files).
+    Csv,
+    /// One row per eye and system, one JSON object per line (any number of files).
+    Jsonl,
+}
+
 #[derive(Subcommand, Debug)]
 enum Command {
     /// Check case files: syntax, units, plausibility, clinical notes and `expect` lines.
@@ -50,14 +64,17 @@ enum Command {
         #[arg(long, short)]
         quiet: bool,
     },
-    /// Compute and show every derived value of one case file, grouped by block.
+    /// Compute every derived value: of one file, grouped by block; or of many files
+    /// and folders at once as CSV or JSON lines (one row per eye and system).
     #[command(after_help = CAUTION_HELP)]
     Eval {
-        /// The case file (`-` reads standard input).
-        file: PathBuf,
+        /// Case files or folders (`-` reads standard input); several, or a folder,
+        /// need `--format csv` or `--format jsonl`.
+        #[arg(required = true)]
+        paths: Vec<PathBuf>,
         /// Output format.
-        #[arg(long, value_enum, default_value_t = Format::Human)]
-        format: Format,
+        #[arg(long, value_enum, default_value_t = EvalFormat::Human)]
+        format: EvalFormat,
         /// Show each value's formula, substituted numbers and source.
         #[arg(long)]
         explain: bool,
@@ -100,11 +117,11 @@ fn main() -> ExitCode {
             quiet,
         } => check::run(&paths, format, quiet),
         Command::Eval {
-            file,
+            paths,
             format,
             explain,
             quiet,
-        } => eval_cmd::run(&file, format, explain, quiet),
+        } => eval_cmd::dispatch(&paths, format, explain, quiet),
         Command::Fmt { paths, check } => fmt_cmd::run(&paths, check),
         Command::Diff { old, new, format } => diff_cmd::run(&old, &new, format),
         Command::View { file } => diff_cmd::view(&file),

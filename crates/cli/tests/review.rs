@@ -241,3 +241,84 @@ fn sarif_log_of_the_examples() {
     assert_eq!(code(&o), 0);
     insta::assert_snapshot!("sarif_examples", stdout(&o));
 }
+
+#[allow(dead_code)]
+mod support {
+    pub mod corpus;
+}
+
+#[test]
+fn batch_csv_and_jsonl_of_the_examples() {
+    let o = parax(&["eval", "--format", "csv", "examples"]);
+    assert_eq!(code(&o), 0, "{}", stderr(&o));
+    assert!(stderr(&o).contains("evaluated 3 files: 3 ok, 0 failed"));
+    let out = stdout(&o);
+    let mut reader = csv::Reader::from_reader(out.as_bytes());
+    let header: Vec<String> = reader
+        .headers()
+        .unwrap()
+        .iter()
+        .map(str::to_owned)
+        .collect();
+    assert_eq!(header[..4], ["file", "block", "kind", "status"]);
+    assert_eq!(reader.records().count(), 5, "2 systems and 3 eyes");
+    insta::assert_snapshot!("batch_csv", out);
+    let o = parax(&["eval", "--format", "jsonl", "examples"]);
+    assert_eq!(code(&o), 0);
+    let rows: Vec<serde_json::Value> = stdout(&o)
+        .lines()
+        .map(|l| serde_json::from_str(l).expect("one JSON object per line"))
+        .collect();
+    assert_eq!(rows.len(), 5);
+    // The JSONL keys are the CSV columns, in the same order.
+    let keys: Vec<&str> = rows[0]
+        .as_object()
+        .unwrap()
+        .keys()
+        .map(String::as_str)
+        .collect();
+    let mut sorted_header = header.clone();
+    sorted_header.sort();
+    assert_eq!(
+        keys,
+        sorted_header.iter().map(String::as_str).collect::<Vec<_>>()
+    );
+    insta::assert_snapshot!("batch_jsonl", stdout(&o));
+}
+
+#[test]
+fn batch_over_a_generated_corpus_with_one_broken_file() {
+    let dir = temp_dir("corpus");
+    let n = 1_000;
+    support::corpus::write(&dir.join("cases"), n);
+    // One broken file in the middle: a missing unit and an unknown keyword.
+    std::fs::write(
+        dir.join("cases/case-00500.parax"),
+        "eye right\n  refraction -2.00 @ 12\n  refracton -1\n",
+    )
+    .unwrap();
+    let o = parax_in(&dir, &["eval", "--format", "csv", "cases"]);
+    assert_eq!(code(&o), 1, "one file failed");
+    let err = stderr(&o);
+    assert!(
+        err.contains("evaluated 1000 files: 999 ok, 1 failed"),
+        "{err}"
+    );
+    assert!(err.contains("cases/case-00500.parax:2:22: P0201"), "{err}");
+    let out = stdout(&o);
+    let mut reader = csv::Reader::from_reader(out.as_bytes());
+    let rows: Vec<csv::StringRecord> = reader.records().map(|r| r.unwrap()).collect();
+    assert_eq!(
+        rows.len(),
+        999 * 2 + 1,
+        "two eyes per good file, one error row"
+    );
+    let errors: Vec<_> = rows.iter().filter(|r| &r[3] == "error").collect();
+    assert_eq!(errors.len(), 1);
+    assert_eq!(&errors[0][0], "cases/case-00500.parax");
+    // Rows come in file order although files are evaluated in parallel.
+    assert_eq!(&rows[0][0], "cases/case-00000.parax");
+    assert_eq!(&rows[rows.len() - 1][0], "cases/case-00999.parax");
+    // Piped: no progress bar on standard error (only the summary and the error).
+    assert_eq!(err.lines().count(), 2, "{err}");
+}

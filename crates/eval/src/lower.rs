@@ -42,7 +42,7 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
                 case.info.title = r.text_value("the case title", form);
             }
             r.finish(form);
-            Target::Case
+            Target::Case(Box::new(std::mem::take(&mut case.info)))
         }
         BlockKind::Eye => {
             let side = side(&mut r, form);
@@ -152,12 +152,14 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
         Target::Eye(eye) => case.eyes.push(*eye),
         Target::Frame(f) => case.frames.push(f),
         Target::System(s) => case.systems.push(s),
-        Target::Case | Target::Skip | Target::Later => {}
+        Target::Case(info) => case.info = *info,
+        Target::Skip | Target::Later => {}
     }
 }
 
 enum Target {
-    Case,
+    /// The case block's facts, put back into the case at the block's end.
+    Case(Box<CaseInfo>),
     Eye(Box<Eye>),
     Frame(Frame),
     System(System),
@@ -243,30 +245,32 @@ fn lower_statement(
                     "this block computes nothing yet in this version, so the recorded result is not checked",
                 ));
             }
-            Target::Case | Target::Skip => {}
+            Target::Case(_) | Target::Skip => {}
         }
         return;
     }
     if kw == "note" {
         let t = r.text_value("the note", form);
-        if let (Target::Case, Some(t)) = (&*target, t) {
-            let _ = t;
+        if let (Target::Case(info), Some(t)) = (&mut *target, t) {
+            info.notes.push(t);
         }
         r.finish(form);
         return;
     }
     match target {
-        Target::Case => {
-            // Case facts are recorded for reports; only their form is checked here.
+        Target::Case(info) => {
+            // Case facts are kept for reports (batch rows, grouping in `stats`).
             match kw {
                 "date" => {
-                    r.date(form);
+                    info.date = r.date(form);
                 }
                 "age" => {
-                    r.quantity(&u::AGE, form);
+                    info.age = at(r.quantity(&u::AGE, form), span);
                 }
                 "tag" => {
-                    r.word("a tag", form);
+                    if let Some((t, _)) = r.word("a tag", form) {
+                        info.tags.push(t.to_owned());
+                    }
                 }
                 _ => {}
             }

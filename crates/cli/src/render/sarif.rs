@@ -113,10 +113,17 @@ pub fn results(location: &Value, parsed: &Parsed, diags: &[Diagnostic]) -> Vec<V
             let n = seen.entry(base).or_default();
             *n += 1;
             let mut message = d.message.clone();
+            let stop = |m: &mut String| {
+                if !m.ends_with('.') {
+                    m.push('.');
+                }
+            };
             if let Some(h) = &d.hint {
+                stop(&mut message);
                 message.push_str(&format!(" Hint: {h}"));
             }
             if let Some(c) = d.caution {
+                stop(&mut message);
                 message.push_str(&format!(" Caution: {c}"));
             }
             let rule_index = ALL.iter().position(|c| c.code == d.code);
