@@ -180,6 +180,16 @@ pub fn rows_of(path: &Path) -> Vec<Row> {
 /// Evaluate every file in parallel; rows in file order. The progress bar (if
 /// any) advances as files finish.
 pub fn evaluate_all(list: &[PathBuf], progress: bool) -> Vec<Vec<Row>> {
+    evaluate_all_with(list, progress, |p| rows_of(p))
+}
+
+/// Apply `f` to every file in parallel (rayon), results in file order, with a
+/// progress bar on standard error when `progress` is true.
+pub fn evaluate_all_with<T: Send>(
+    list: &[PathBuf],
+    progress: bool,
+    f: impl Fn(&Path) -> T + Sync,
+) -> Vec<T> {
     let bar = if progress {
         let b = ProgressBar::new(list.len() as u64);
         b.set_style(
@@ -193,7 +203,7 @@ pub fn evaluate_all(list: &[PathBuf], progress: bool) -> Vec<Vec<Row>> {
     let out = list
         .par_iter()
         .map(|p| {
-            let r = rows_of(p);
+            let r = f(p);
             bar.inc(1);
             r
         })

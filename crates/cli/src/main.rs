@@ -9,6 +9,7 @@ mod eval_cmd;
 mod files;
 mod fmt_cmd;
 mod render;
+mod stats;
 
 use clap::{Parser, Subcommand, ValueEnum};
 use std::path::PathBuf;
@@ -101,6 +102,20 @@ enum Command {
         #[arg(long, value_enum, default_value_t = diff_cmd::DiffFormat::Human)]
         format: diff_cmd::DiffFormat,
     },
+    /// Cohort statistics of refractions: count, mean and SD of M, J0, J45 per eye,
+    /// the mean as sphere/cylinder/axis; optionally per tag or year.
+    #[command(after_help = CAUTION_HELP)]
+    Stats {
+        /// Case files or folders.
+        #[arg(required = true)]
+        paths: Vec<PathBuf>,
+        /// Group the eyes by a case field.
+        #[arg(long, value_enum, default_value_t = stats::GroupBy::None)]
+        group_by: stats::GroupBy,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = stats::StatsFormat::Human)]
+        format: stats::StatsFormat,
+    },
     /// Print a case file followed by its derived values, one per line (a git textconv driver).
     View {
         /// The case file (`-` reads standard input).
@@ -125,6 +140,11 @@ fn main() -> ExitCode {
         Command::Fmt { paths, check } => fmt_cmd::run(&paths, check),
         Command::Diff { old, new, format } => diff_cmd::run(&old, &new, format),
         Command::View { file } => diff_cmd::view(&file),
+        Command::Stats {
+            paths,
+            group_by,
+            format,
+        } => stats::run(&paths, group_by, format),
     };
     ExitCode::from(code)
 }

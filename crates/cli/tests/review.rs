@@ -322,3 +322,70 @@ fn batch_over_a_generated_corpus_with_one_broken_file() {
     // Piped: no progress bar on standard error (only the summary and the error).
     assert_eq!(err.lines().count(), 2, "{err}");
 }
+
+#[test]
+fn stats_against_values_worked_by_hand() {
+    // Three invented cases, right eyes -2.00/-1.00×90, -1.00/-2.00×45 and
+    // +1.00/-0.50×180 (tag "a"), and one more (tag "b") that is a plain sphere.
+    let dir = temp_dir("stats");
+    let case = |name: &str, tag: &str, date: &str, rx: &str| {
+        std::fs::write(
+            dir.join(name),
+            format!("# Invented test case.\ncase \"{name}\"\n  date {date}\n  tag {tag}\n\neye right\n  refraction {rx} @ 12 mm\n"),
+        )
+        .unwrap();
+    };
+    case("a1.parax", "a", "2024-02-01", "-2.00 / -1.00 x 90");
+    case("a2.parax", "a", "2024-05-01", "-1.00 / -2.00 x 45");
+    case("a3.parax", "a", "2025-01-09", "+1.00 / -0.50 x 180");
+    case("b1.parax", "b", "2025-03-03", "-3.00");
+    let o = parax_in(
+        &dir,
+        &["stats", "--group-by", "tag", "--format", "json", "."],
+    );
+    assert_eq!(code(&o), 0, "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    let a = &v["groups"][0];
+    assert_eq!(a["group"], "a");
+    assert_eq!(a["eye"], "right");
+    assert_eq!(a["count"], 3);
+    let f = |x: &serde_json::Value| x.as_f64().unwrap();
+    let close = |a: f64, b: f64, tol: f64| assert!((a - b).abs() <= tol, "{a} vs {b}");
+    // [C] Thibos, Wheeler & Horner, Optom Vis Sci 1997 definitions, worked by hand:
+    // vectors (−2.50, −0.50, 0), (−2.00, 0, +1.00), (+0.75, +0.25, 0).
+    // Mean M −1.25, J0 −1/12, J45 1/3; sample SD 1.75, 0.381881, 0.577350;
+    // mean as sph/cyl −0.906408 / −0.687184 × 52.018. Tolerance 1e-6 D, 1e-3°.
+    close(f(&a["mean"]["m"]), -1.25, 1e-6);
+    close(f(&a["mean"]["j0"]), -1.0 / 12.0, 1e-6);
+    close(f(&a["mean"]["j45"]), 1.0 / 3.0, 1e-6);
+    close(f(&a["sd"]["m"]), 1.75, 1e-6);
+    close(f(&a["sd"]["j0"]), 0.381881, 1e-6);
+    close(f(&a["sd"]["j45"]), 0.577350, 1e-6);
+    close(f(&a["mean_sphcyl"]["sphere"]), -0.906408, 1e-6);
+    close(f(&a["mean_sphcyl"]["cylinder"]), -0.687184, 1e-6);
+    close(f(&a["mean_sphcyl"]["axis"]), 52.018, 1e-3);
+    assert_eq!(a["mean_sphcyl"]["text"], "-0.91 / -0.69 x 52");
+    let b = &v["groups"][1];
+    assert_eq!(
+        (b["group"].as_str(), b["count"].as_u64()),
+        (Some("b"), Some(1))
+    );
+    assert!(b["sd"].is_null(), "no SD of one refraction");
+    // By year: 2024 holds the first two.
+    let o = parax_in(
+        &dir,
+        &["stats", "--group-by", "year", "--format", "json", "."],
+    );
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    assert_eq!(v["groups"][0]["group"], "2024");
+    assert_eq!(v["groups"][0]["count"], 2);
+    // [C] mean M of −2.50 and −2.00 is −2.25; tol 1e-9
+    close(f(&v["groups"][0]["mean"]["m"]), -2.25, 1e-9);
+}
+
+#[test]
+fn stats_of_the_examples() {
+    let o = parax(&["stats", "examples"]);
+    assert_eq!(code(&o), 0);
+    insta::assert_snapshot!("stats_examples", stdout(&o));
+}
