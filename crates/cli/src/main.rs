@@ -9,6 +9,7 @@ mod eval_cmd;
 mod files;
 mod fmt_cmd;
 mod render;
+mod render_cmd;
 mod stats;
 
 use clap::{Parser, Subcommand, ValueEnum};
@@ -116,6 +117,15 @@ enum Command {
         #[arg(long, value_enum, default_value_t = stats::StatsFormat::Human)]
         format: stats::StatsFormat,
     },
+    /// Draw SVG diagrams: each lens system (object, images, chief ray) and a power
+    /// cross for each refraction.
+    Render {
+        /// The case file.
+        file: PathBuf,
+        /// The folder to write the SVG files into (created if needed).
+        #[arg(long)]
+        out: PathBuf,
+    },
     /// Print a case file followed by its derived values, one per line (a git textconv driver).
     View {
         /// The case file (`-` reads standard input).
@@ -140,6 +150,7 @@ fn main() -> ExitCode {
         Command::Fmt { paths, check } => fmt_cmd::run(&paths, check),
         Command::Diff { old, new, format } => diff_cmd::run(&old, &new, format),
         Command::View { file } => diff_cmd::view(&file),
+        Command::Render { file, out } => render_cmd::run(&file, &out),
         Command::Stats {
             paths,
             group_by,

@@ -389,3 +389,64 @@ fn stats_of_the_examples() {
     assert_eq!(code(&o), 0);
     insta::assert_snapshot!("stats_examples", stdout(&o));
 }
+
+#[test]
+fn render_examples_to_svg_and_png() {
+    let dir = temp_dir("render");
+    let mut names = Vec::new();
+    for example in [
+        "examples/bench-relay.parax",
+        "examples/clinic-review.parax",
+        "examples/eye-model.parax",
+    ] {
+        let o = parax(&["render", example, "--out", dir.to_str().unwrap()]);
+        assert_eq!(code(&o), 0, "{}", stderr(&o));
+    }
+    let mut entries: Vec<PathBuf> = std::fs::read_dir(&dir)
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .collect();
+    entries.sort();
+    for p in &entries {
+        let name = p.file_name().unwrap().to_string_lossy().into_owned();
+        let svg = std::fs::read_to_string(p).unwrap();
+        // Valid SVG: resvg parses and rasterises it; the PNG has ink.
+        let tree = resvg::usvg::Tree::from_str(&svg, &resvg::usvg::Options::default())
+            .unwrap_or_else(|e| panic!("{name}: {e}"));
+        let size = tree.size().to_int_size();
+        let mut pixmap = resvg::tiny_skia::Pixmap::new(size.width(), size.height()).unwrap();
+        resvg::render(
+            &tree,
+            resvg::tiny_skia::Transform::default(),
+            &mut pixmap.as_mut(),
+        );
+        let ink = pixmap
+            .pixels()
+            .iter()
+            .filter(|c| (c.red(), c.green(), c.blue()) != (255, 255, 255))
+            .count();
+        assert!(ink > 1_000, "{name}: drawn");
+        std::fs::write(p.with_extension("png"), pixmap.encode_png().unwrap()).unwrap();
+        insta::assert_snapshot!(format!("render_{name}"), svg);
+        names.push(name);
+    }
+    assert_eq!(
+        names,
+        [
+            "bench-relay.system.two-lens-bench-relay.svg",
+            "clinic-review.eye.left.svg",
+            "clinic-review.eye.right.svg",
+            "eye-model.eye.right.svg",
+            "eye-model.system.corrected-reduced-eye.svg",
+        ]
+    );
+    // The relay's final image is real (solid) and there is a chief ray.
+    let relay =
+        std::fs::read_to_string(dir.join("bench-relay.system.two-lens-bench-relay.svg")).unwrap();
+    assert_eq!(
+        relay.matches(r#"class="arrow real""#).count(),
+        3,
+        "object and two real images"
+    );
+    assert!(relay.contains(r#"class="chief-ray""#));
+}

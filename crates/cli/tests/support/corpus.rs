@@ -21,7 +21,7 @@ impl Lcg {
 /// The text of generated case `i`.
 pub fn case_text(i: usize) -> String {
     let mut g = Lcg(i as u64 + 1);
-    let mut eye = |side: &str, g: &mut Lcg| {
+    let eye = |side: &str, g: &mut Lcg| {
         let sphere = -8.0 + 0.25 * g.next(49) as f64;
         let cylinder = -0.25 * g.next(13) as f64;
         let axis = 1 + g.next(180);
