@@ -180,7 +180,7 @@ pub fn rows_of(path: &Path) -> Vec<Row> {
 /// Evaluate every file in parallel; rows in file order. The progress bar (if
 /// any) advances as files finish.
 pub fn evaluate_all(list: &[PathBuf], progress: bool) -> Vec<Vec<Row>> {
-    evaluate_all_with(list, progress, |p| rows_of(p))
+    evaluate_all_with(list, progress, rows_of)
 }
 
 /// Apply `f` to every file in parallel (rayon), results in file order, with a
