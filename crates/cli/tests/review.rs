@@ -450,3 +450,26 @@ fn render_examples_to_svg_and_png() {
     );
     assert!(relay.contains(r#"class="chief-ray""#));
 }
+
+#[test]
+fn render_marks_a_virtual_image_dashed() {
+    // An invented bench set-up: one negative lens, object 50 cm before it. The
+    // image is virtual, 12.5 cm before the lens ([C] L' = −2 − 6 = −8 D,
+    // l' = −0.125 m; m = L/L' = 0.25, erect).
+    let dir = temp_dir("render-virtual");
+    std::fs::write(
+        dir.join("minus.parax"),
+        "# Invented test case.\nsystem \"minus lens\"\n  object 50 cm before N\n  lens N -6.00 D\n",
+    )
+    .unwrap();
+    let o = parax_in(&dir, &["render", "minus.parax", "--out", "out"]);
+    assert_eq!(code(&o), 0, "{}", stderr(&o));
+    let svg = std::fs::read_to_string(dir.join("out/minus.system.minus-lens.svg")).unwrap();
+    assert_eq!(svg.matches(r#"class="arrow virtual""#).count(), 1);
+    assert!(svg.contains("final image (virtual)"));
+    assert!(
+        svg.contains(r#"class="chief-ray virtual""#),
+        "traced back to the virtual image"
+    );
+    insta::assert_snapshot!("render_virtual_image", svg);
+}
