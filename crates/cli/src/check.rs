@@ -1,6 +1,6 @@
 //! `parax check`: evaluate every file in parallel and report diagnostics.
 
-use crate::render::{human, json};
+use crate::render::{human, json, sarif};
 use crate::{files, Format};
 use parax_eval::{evaluate_source, Severity};
 use rayon::prelude::*;
@@ -17,7 +17,11 @@ pub struct Checked {
     pub expects: usize,
 }
 
-fn check_one(path: &Path, format: Format) -> Result<(Checked, Option<serde_json::Value>), String> {
+fn check_one(
+    path: &Path,
+    format: Format,
+    root: &Path,
+) -> Result<(Checked, Option<serde_json::Value>), String> {
     let source = files::read(path)?;
     let name = files::display(path);
     let (parsed, ev) = evaluate_source(&source);
@@ -72,13 +76,35 @@ fn check_one(path: &Path, format: Format) -> Result<(Checked, Option<serde_json:
             },
             Some(json::file_diagnostics(&name, &parsed, &ev.diagnostics)),
         ),
+        Format::Sarif => {
+            let location = sarif::artifact_location(root, path);
+            (
+                Checked {
+                    report: String::new(),
+                    counts,
+                    expects,
+                },
+                Some(serde_json::Value::Array(sarif::results(
+                    &location,
+                    &parsed,
+                    &ev.diagnostics,
+                ))),
+            )
+        }
     })
 }
 
 /// Run `parax check`; returns the exit status.
 pub fn run(paths: &[PathBuf], format: Format, quiet: bool) -> u8 {
     let (list, mut io_errors) = files::collect(paths);
-    let results: Vec<_> = list.par_iter().map(|p| check_one(p, format)).collect();
+    let root = match format {
+        Format::Sarif => sarif::root(),
+        _ => PathBuf::new(),
+    };
+    let results: Vec<_> = list
+        .par_iter()
+        .map(|p| check_one(p, format, &root))
+        .collect();
     let stdout = std::io::stdout();
     let mut out = std::io::BufWriter::new(stdout.lock());
     let mut totals = [0usize; 3];
@@ -103,6 +129,21 @@ pub fn run(paths: &[PathBuf], format: Format, quiet: bool) -> u8 {
     match format {
         Format::Json => {
             let v = json::check_report(json_files, totals, list.len(), &io_errors);
+            let _ = writeln!(
+                out,
+                "{}",
+                serde_json::to_string_pretty(&v).expect("JSON of plain values")
+            );
+        }
+        Format::Sarif => {
+            let results = json_files
+                .into_iter()
+                .flat_map(|v| match v {
+                    serde_json::Value::Array(a) => a,
+                    other => vec![other],
+                })
+                .collect();
+            let v = sarif::log(results, &io_errors);
             let _ = writeln!(
                 out,
                 "{}",

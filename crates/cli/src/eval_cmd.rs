@@ -1,9 +1,10 @@
 //! `parax eval`: every derived value of one file.
 
+use crate::batch::{self, BatchFormat};
 use crate::render::{human, json};
-use crate::{files, Format};
+use crate::{files, EvalFormat, Format};
 use parax_eval::evaluate_source;
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
 /// Run `parax eval`; returns the exit status.
 pub fn run(path: &Path, format: Format, explain: bool, quiet: bool) -> u8 {
@@ -24,7 +25,7 @@ pub fn run(path: &Path, format: Format, explain: bool, quiet: bool) -> u8 {
                 serde_json::to_string_pretty(&v).expect("JSON of plain values")
             );
         }
-        Format::Human => {
+        Format::Human | Format::Sarif => {
             print!("{}", human::derived_table(&parsed, &ev.derived, explain));
             if ev.derived.is_empty() {
                 println!("(no derived values: record a refraction, keratometry or a lens system)");
@@ -47,5 +48,23 @@ pub fn run(path: &Path, format: Format, explain: bool, quiet: bool) -> u8 {
         1
     } else {
         0
+    }
+}
+
+/// `parax eval PATH…`: one file in the human or JSON form, or a batch as CSV or
+/// JSON lines (see [`crate::batch`]).
+pub fn dispatch(paths: &[PathBuf], format: EvalFormat, explain: bool, quiet: bool) -> u8 {
+    let single = match format {
+        EvalFormat::Human => Format::Human,
+        EvalFormat::Json => Format::Json,
+        EvalFormat::Csv => return batch::run(paths, BatchFormat::Csv),
+        EvalFormat::Jsonl => return batch::run(paths, BatchFormat::Jsonl),
+    };
+    match paths {
+        [one] if !one.is_dir() => run(one, single, explain, quiet),
+        _ => {
+            eprintln!("parax: several files or a folder: use `--format csv` or `--format jsonl`");
+            2
+        }
     }
 }

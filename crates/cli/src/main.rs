@@ -2,11 +2,15 @@
 //! value and finding comes from `parax-eval`; this crate only finds files, renders
 //! and sets the exit status (0 clean, 1 errors or failed `expect`, 2 usage or I/O).
 
+mod batch;
 mod check;
+mod diff_cmd;
 mod eval_cmd;
 mod files;
 mod fmt_cmd;
 mod render;
+mod render_cmd;
+mod stats;
 
 use clap::{Parser, Subcommand, ValueEnum};
 use std::path::PathBuf;
@@ -31,6 +35,21 @@ pub enum Format {
     Human,
     /// For programs (keys documented in docs/notation.md and docs/cli.md).
     Json,
+    /// SARIF 2.1.0, for code-review systems (`parax check` only).
+    Sarif,
+}
+
+/// Output formats of `parax eval`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum EvalFormat {
+    /// For people (one file).
+    Human,
+    /// For programs (one file).
+    Json,
+    /// One row per eye and system, comma-separated (any number of files).
+    Csv,
+    /// One row per eye and system, one JSON object per line (any number of files).
+    Jsonl,
 }
 
 #[derive(Subcommand, Debug)]
@@ -47,14 +66,17 @@ enum Command {
         #[arg(long, short)]
         quiet: bool,
     },
-    /// Compute and show every derived value of one case file, grouped by block.
+    /// Compute every derived value: of one file, grouped by block; or of many files
+    /// and folders at once as CSV or JSON lines (one row per eye and system).
     #[command(after_help = CAUTION_HELP)]
     Eval {
-        /// The case file (`-` reads standard input).
-        file: PathBuf,
+        /// Case files or folders (`-` reads standard input); several, or a folder,
+        /// need `--format csv` or `--format jsonl`.
+        #[arg(required = true)]
+        paths: Vec<PathBuf>,
         /// Output format.
-        #[arg(long, value_enum, default_value_t = Format::Human)]
-        format: Format,
+        #[arg(long, value_enum, default_value_t = EvalFormat::Human)]
+        format: EvalFormat,
         /// Show each value's formula, substituted numbers and source.
         #[arg(long)]
         explain: bool,
@@ -70,6 +92,45 @@ enum Command {
         #[arg(long)]
         check: bool,
     },
+    /// Compare two versions of a case file: changed inputs and the derived values that moved.
+    #[command(after_help = CAUTION_HELP)]
+    Diff {
+        /// The old version: a file, or `REV:PATH` read with `git show`.
+        old: String,
+        /// The new version: a file, or `REV:PATH`.
+        new: String,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = diff_cmd::DiffFormat::Human)]
+        format: diff_cmd::DiffFormat,
+    },
+    /// Cohort statistics of refractions: count, mean and SD of M, J0, J45 per eye,
+    /// the mean as sphere/cylinder/axis; optionally per tag or year.
+    #[command(after_help = CAUTION_HELP)]
+    Stats {
+        /// Case files or folders.
+        #[arg(required = true)]
+        paths: Vec<PathBuf>,
+        /// Group the eyes by a case field.
+        #[arg(long, value_enum, default_value_t = stats::GroupBy::None)]
+        group_by: stats::GroupBy,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = stats::StatsFormat::Human)]
+        format: stats::StatsFormat,
+    },
+    /// Draw SVG diagrams: each lens system (object, images, chief ray) and a power
+    /// cross for each refraction.
+    Render {
+        /// The case file.
+        file: PathBuf,
+        /// The folder to write the SVG files into (created if needed).
+        #[arg(long)]
+        out: PathBuf,
+    },
+    /// Print a case file followed by its derived values, one per line (a git textconv driver).
+    View {
+        /// The case file (`-` reads standard input).
+        file: PathBuf,
+    },
 }
 
 fn main() -> ExitCode {
@@ -81,12 +142,20 @@ fn main() -> ExitCode {
             quiet,
         } => check::run(&paths, format, quiet),
         Command::Eval {
-            file,
+            paths,
             format,
             explain,
             quiet,
-        } => eval_cmd::run(&file, format, explain, quiet),
+        } => eval_cmd::dispatch(&paths, format, explain, quiet),
         Command::Fmt { paths, check } => fmt_cmd::run(&paths, check),
+        Command::Diff { old, new, format } => diff_cmd::run(&old, &new, format),
+        Command::View { file } => diff_cmd::view(&file),
+        Command::Render { file, out } => render_cmd::run(&file, &out),
+        Command::Stats {
+            paths,
+            group_by,
+            format,
+        } => stats::run(&paths, group_by, format),
     };
     ExitCode::from(code)
 }

@@ -165,3 +165,116 @@ impl DerivedValue {
         }
     }
 }
+
+/// How far a derived value moved between two versions of a case file.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[serde(tag = "type", rename_all = "kebab-case")]
+pub enum Difference {
+    /// A change of a power, in dioptres (new − old).
+    Dioptres {
+        /// Dioptres.
+        dioptres: f64,
+    },
+    /// A change of a distance measured from the same point, metres (new − old).
+    Metres {
+        /// Metres.
+        metres: f64,
+    },
+    /// A change of a pure number (new − old).
+    Number {
+        /// The change.
+        value: f64,
+    },
+    /// The change of a sphero-cylinder: the power-vector difference new − old
+    /// (Thibos, Wheeler & Horner 1997), written back as a sphero-cylinder: the
+    /// lens that, added to the old correction, gives the new one.
+    SphCyl {
+        /// Sphere of the difference, D.
+        sphere: f64,
+        /// Cylinder of the difference (minus form), D.
+        cylinder: f64,
+        /// Axis of the difference, degrees.
+        axis: f64,
+    },
+}
+
+impl Difference {
+    /// Display text: `+0.25 D`, `-1.20 cm`, `+0.0120`, `-0.25 / -0.50 x 90`.
+    pub fn display(&self) -> String {
+        match self {
+            Difference::Dioptres { dioptres } => format!("{} D", fmt_power(*dioptres)),
+            Difference::Metres { metres } => format!("{:+.2} cm", metres * 100.0),
+            Difference::Number { value } => format!("{value:+.4}"),
+            Difference::SphCyl {
+                sphere,
+                cylinder,
+                axis,
+            } => fmt_sphcyl(*sphere, *cylinder, *axis),
+        }
+    }
+}
+
+impl DerivedValue {
+    /// The difference `new − old` when both are numbers of the same kind (and,
+    /// for distances, from the same point); `None` for text, infinity or a
+    /// change of kind, where only old and new can be shown.
+    pub fn difference(old: &DerivedValue, new: &DerivedValue) -> Option<Difference> {
+        use DerivedValue as V;
+        match (old, new) {
+            (V::Power { dioptres: a }, V::Power { dioptres: b }) => {
+                Some(Difference::Dioptres { dioptres: b - a })
+            }
+            (V::Meridian { dioptres: a, .. }, V::Meridian { dioptres: b, .. }) => {
+                Some(Difference::Dioptres { dioptres: b - a })
+            }
+            (
+                V::Cylinder {
+                    dioptres: c1,
+                    axis: a1,
+                },
+                V::Cylinder {
+                    dioptres: c2,
+                    axis: a2,
+                },
+            ) => Some(sphcyl_difference((0.0, *c1, *a1), (0.0, *c2, *a2))),
+            (
+                V::SphCyl {
+                    sphere: s1,
+                    cylinder: c1,
+                    axis: a1,
+                },
+                V::SphCyl {
+                    sphere: s2,
+                    cylinder: c2,
+                    axis: a2,
+                },
+            ) => Some(sphcyl_difference((*s1, *c1, *a1), (*s2, *c2, *a2))),
+            (
+                V::Distance {
+                    metres: a,
+                    from: f1,
+                },
+                V::Distance {
+                    metres: b,
+                    from: f2,
+                },
+            ) if f1 == f2 => Some(Difference::Metres { metres: b - a }),
+            (V::Number { value: a }, V::Number { value: b }) => {
+                Some(Difference::Number { value: b - a })
+            }
+            _ => None,
+        }
+    }
+}
+
+fn sphcyl_difference(old: (f64, f64, f64), new: (f64, f64, f64)) -> Difference {
+    use parax_optics::refraction::SphCyl;
+    let o = SphCyl::new(old.0, old.1, old.2).power_vector();
+    let n = SphCyl::new(new.0, new.1, new.2).power_vector();
+    let d = n.sub(&o).to_sphcyl();
+    Difference::SphCyl {
+        sphere: d.sphere,
+        cylinder: d.cylinder,
+        axis: d.axis,
+    }
+}

@@ -17,7 +17,7 @@ pub mod sources;
 pub mod units;
 
 pub use compute::slug;
-pub use derived::{Derived, DerivedValue};
+pub use derived::{Derived, DerivedValue, Difference};
 pub use diagnostic::{Diagnostic, Edit, Fix, Severity, GENERAL_CAUTION};
 pub use model::Case;
 

@@ -42,7 +42,7 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
                 case.info.title = r.text_value("the case title", form);
             }
             r.finish(form);
-            Target::Case(None)
+            Target::Case(Box::new(std::mem::take(&mut case.info)))
         }
         BlockKind::Eye => {
             let side = side(&mut r, form);
@@ -201,17 +201,14 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
         Target::Spectacle(l) => case.spectacle_lenses.push(*l),
         Target::Contact(c) => case.contact_lenses.push(c),
         Target::Model(m) => case.model_eyes.push(m),
-        Target::Case(age) => {
-            if age.is_some() {
-                case.info.age = age;
-            }
-        }
+        Target::Case(info) => case.info = *info,
         Target::Skip => {}
     }
 }
 
 enum Target {
-    Case(Option<At<f64>>),
+    /// The case block's facts, put back into the case at the block's end.
+    Case(Box<CaseInfo>),
     Eye(Box<Eye>),
     Frame(Frame),
     System(System),
@@ -277,24 +274,26 @@ fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str
     }
     if kw == "note" {
         let t = r.text_value("the note", form);
-        if let (Target::Case(_), Some(t)) = (&*target, t) {
-            let _ = t;
+        if let (Target::Case(info), Some(t)) = (&mut *target, t) {
+            info.notes.push(t);
         }
         r.finish(form);
         return;
     }
     match target {
-        Target::Case(age) => {
-            // Case facts are recorded for reports; only their form is checked here.
+        Target::Case(info) => {
+            // Case facts are kept for reports (batch rows, grouping in `stats`).
             match kw {
                 "date" => {
-                    r.date(form);
+                    info.date = r.date(form);
                 }
                 "age" => {
-                    *age = at(r.quantity(&u::AGE, form), span);
+                    info.age = at(r.quantity(&u::AGE, form), span);
                 }
                 "tag" => {
-                    r.word("a tag", form);
+                    if let Some((t, _)) = r.word("a tag", form) {
+                        info.tags.push(t.to_owned());
+                    }
                 }
                 _ => {}
             }

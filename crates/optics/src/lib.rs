@@ -25,6 +25,7 @@
 //!
 //! # Modules
 //!
+//! - [`cohort`]: mean and standard deviation of a cohort's power vectors.
 //! - [`units`]: dimensions, units and conversions.
 //! - [`refraction`]: sphere/cylinder/axis algebra and power vectors.
 //! - [`vertex`]: effective power and vertex-distance transfer.
@@ -52,6 +53,7 @@
 #![forbid(unsafe_code)]
 #![warn(missing_docs)]
 
+pub mod cohort;
 pub mod contact;
 pub mod iol;
 pub mod keratometry;

@@ -232,6 +232,44 @@ pub fn trace(object: Object, elements: &[Element], object_index: f64) -> Trace {
     }
 }
 
+/// A paraxial ray through `elements`: given its height `y` (metres) and reduced
+/// angle `nu` (n·u, radians) just before the first element, returns its height
+/// at every refracting element, in order, and its height and reduced angle just
+/// after the last element, by the ray-transfer matrices of [`Matrix2`]
+/// (refraction `n'u' = nu − y·F`, transfer `y' = y + (d/n)·nu`).
+pub fn ray_heights(
+    elements: &[Element],
+    y: f64,
+    nu: f64,
+    object_index: f64,
+) -> (Vec<f64>, f64, f64) {
+    let (mut y, mut nu, mut n) = (y, nu, object_index);
+    let mut heights = Vec::new();
+    for el in elements {
+        let m = match *el {
+            Element::Gap { length_m, index } => {
+                n = index;
+                Matrix2::transfer(length_m, index)
+            }
+            Element::ThinLens { power } => {
+                heights.push(y);
+                Matrix2::refraction(power)
+            }
+            Element::Surface {
+                radius_m,
+                index_after,
+            } => {
+                heights.push(y);
+                let p = (index_after - n) / radius_m;
+                n = index_after;
+                Matrix2::refraction(p)
+            }
+        };
+        (y, nu) = (m.a * y + m.b * nu, m.c * y + m.d * nu);
+    }
+    (heights, y, nu)
+}
+
 /// A 2×2 ray-transfer matrix acting on the column `(y, n·u)`:
 /// `y' = a·y + b·(n u)`, `(n'u') = c·y + d·(n u)`.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]

@@ -383,3 +383,41 @@ fn no_refracting_elements() {
     // [C] the object itself, 0.4 m before the end of the gap; tol 1e-12
     assert_close!(l, -0.4, 1e-12);
 }
+
+#[test]
+fn chief_ray_meets_every_image_tip() {
+    use parax_optics::system::{ray_heights, trace, Element, ImagePlace, Object};
+    // The two-lens relay of examples/bench-relay.parax: object 1 unit high, 40 cm
+    // before A (+6 D); 20 cm to B (+10 D).
+    let els = [
+        Element::ThinLens { power: 6.0 },
+        Element::Gap {
+            length_m: 0.2,
+            index: 1.0,
+        },
+        Element::ThinLens { power: 10.0 },
+    ];
+    let t = trace(
+        Object::Distance {
+            before_first_m: 0.4,
+        },
+        &els,
+        1.0,
+    );
+    // A ray from the object tip through the centre of A: y = 0 at A, n·u = −1/0.4.
+    let (heights, y, nu) = ray_heights(&els, 0.0, -1.0 / 0.4, 1.0);
+    // [C] transfer y' = y + d·u: at B, y = 0.2 × (−2.5) = −0.5; tol 1e-12
+    assert_close!(heights[1], -0.5, 1e-12);
+    // [C] paraxial imaging (every ray from an object point passes through its
+    // image point): at the final image (4.615 cm after B) the ray's height is the
+    // image height m·h = −0.3846 (CAPABILITIES §4 / README bench relay); tol 1e-9
+    let ImagePlace::At {
+        after_element_m, ..
+    } = t.final_image
+    else {
+        panic!("finite image")
+    };
+    let m = t.total_magnification.unwrap();
+    assert_close!(y + nu * after_element_m, m, 1e-9);
+    assert_close!(m, -0.384615, 1e-6);
+}
