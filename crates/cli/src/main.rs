@@ -6,6 +6,7 @@ mod check;
 mod eval_cmd;
 mod files;
 mod fmt_cmd;
+mod lsp_cmd;
 mod render;
 
 use clap::{Parser, Subcommand, ValueEnum};
@@ -70,6 +71,8 @@ enum Command {
         #[arg(long)]
         check: bool,
     },
+    /// Serve the Language Server Protocol on standard input and output (for editors).
+    Lsp,
 }
 
 fn main() -> ExitCode {
@@ -87,6 +90,7 @@ fn main() -> ExitCode {
             quiet,
         } => eval_cmd::run(&file, format, explain, quiet),
         Command::Fmt { paths, check } => fmt_cmd::run(&paths, check),
+        Command::Lsp => lsp_cmd::run(),
     };
     ExitCode::from(code)
 }
