@@ -48,10 +48,10 @@ pub fn inlay_hints(a: &Analysis, range: Option<Span>) -> Vec<InlayHint> {
         let mut parts = Vec::new();
         for (name, short) in PREFERRED {
             // Per-lens values are keyed `LABEL.image`; the whole system's image is `image`.
-            if let Some(d) = here
-                .iter()
-                .find(|d| d.name == *name || d.name.ends_with(&format!(".{name}")))
-            {
+            // The whole system's value wins over a per-lens one on the same line.
+            let exact = here.iter().find(|d| d.name == *name);
+            let per_lens = || here.iter().find(|d| d.name.ends_with(&format!(".{name}")));
+            if let Some(d) = exact.or_else(per_lens) {
                 parts.push(format!("{short} {}", d.text));
             }
             if parts.len() == 2 {

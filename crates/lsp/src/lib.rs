@@ -5,6 +5,7 @@
 //! client; evaluation runs off the message loop and only the newest version of a
 //! document is evaluated. This is the only crate that knows LSP types.
 
+pub mod client;
 mod convert;
 mod documents;
 mod server;
@@ -27,4 +28,14 @@ pub fn run_stdio() -> std::io::Result<()> {
             .await;
     });
     Ok(())
+}
+
+/// Serve the protocol on any pair of streams (used by in-process tests).
+pub async fn serve<I, O>(input: I, output: O)
+where
+    I: tokio::io::AsyncRead + Unpin,
+    O: tokio::io::AsyncWrite,
+{
+    let (service, socket) = LspService::new(Server::new);
+    Transport::new(input, output, socket).serve(service).await;
 }
