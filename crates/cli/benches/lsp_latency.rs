@@ -15,7 +15,9 @@ use tokio::process::{Child, ChildStdin, ChildStdout};
 
 /// An invented case of about `lines` lines: eye blocks of six lines each.
 fn case(lines: usize) -> String {
-    let mut s = String::from("# Invented benchmark data: no real patient.\ncase \"bench\"\n  date 2026-01-02\n");
+    let mut s = String::from(
+        "# Invented benchmark data: no real patient.\ncase \"bench\"\n  date 2026-01-02\n",
+    );
     let mut i = 0;
     while s.lines().count() < lines {
         let side = if i % 2 == 0 { "right" } else { "left" };
@@ -60,7 +62,9 @@ fn null_server() {
         }
         let msg: Value = serde_json::from_slice(&buf).unwrap_or(Value::Null);
         let reply = match (msg["method"].as_str().unwrap_or(""), msg.get("id")) {
-            ("initialize", Some(id)) => json!({"jsonrpc": "2.0", "id": id, "result": {"capabilities": {}}}),
+            ("initialize", Some(id)) => {
+                json!({"jsonrpc": "2.0", "id": id, "result": {"capabilities": {}}})
+            }
             ("exit", _) => return,
             (_, Some(id)) => json!({"jsonrpc": "2.0", "id": id, "result": []}),
             ("textDocument/didChange" | "textDocument/didOpen", None) => json!({
@@ -89,7 +93,10 @@ const URI: &str = "file:///bench/case.parax";
 
 impl Session {
     fn start(null: bool, text: &str) -> Session {
-        let rt = tokio::runtime::Builder::new_current_thread().enable_all().build().expect("runtime");
+        let rt = tokio::runtime::Builder::new_current_thread()
+            .enable_all()
+            .build()
+            .expect("runtime");
         let (child, client) = rt.block_on(async {
             let mut cmd = if null {
                 let mut c = tokio::process::Command::new(std::env::current_exe().expect("bench exe"));
@@ -131,7 +138,14 @@ impl Session {
             .find(|(_, l)| l.starts_with("  refraction -"))
             .map(|(i, _)| i as u32)
             .unwrap_or(4);
-        Session { rt, _child: child, client, version: 1, edit_line, samples: Vec::new() }
+        Session {
+            rt,
+            _child: child,
+            client,
+            version: 1,
+            edit_line,
+            samples: Vec::new(),
+        }
     }
 
     /// One edit: change the sphere's first decimal (col 16) and wait for
