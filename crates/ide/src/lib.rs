@@ -25,13 +25,22 @@ pub struct Analysis {
     pub parsed: Parsed,
     /// Derived values and diagnostics.
     pub evaluation: Evaluation,
+    /// Indices into `evaluation.derived`, ordered by where each value's
+    /// statement starts, so the values of one line are found by binary search.
+    by_start: Vec<usize>,
 }
 
 impl Analysis {
     /// Parse and evaluate `source`.
     pub fn new(source: &str) -> Self {
         let (parsed, evaluation) = parax_eval::evaluate_source(source);
-        Analysis { parsed, evaluation }
+        let mut by_start: Vec<usize> = (0..evaluation.derived.len()).collect();
+        by_start.sort_by_key(|&i| evaluation.derived[i].span.start);
+        Analysis {
+            parsed,
+            evaluation,
+            by_start,
+        }
     }
 
     /// The source text.
@@ -65,10 +74,14 @@ impl Analysis {
     /// Derived values whose statement lies on `line`.
     pub fn derived_on_line(&self, line: &Line) -> impl Iterator<Item = &Derived> + '_ {
         let span = line.span;
-        self.evaluation
-            .derived
+        let derived = &self.evaluation.derived;
+        let first = self
+            .by_start
+            .partition_point(|&i| derived[i].span.start < span.start);
+        self.by_start[first..]
             .iter()
-            .filter(move |d| d.span.start >= span.start && d.span.start <= span.end)
+            .map(move |&i| &derived[i])
+            .take_while(move |d| d.span.start <= span.end)
     }
 
     /// The kind of the block that holds `line`, if any.
