@@ -64,14 +64,21 @@ impl Timing {
 fn run(cmd: &mut Command) -> (Duration, f64) {
     let before = children_cpu_ticks().unwrap_or(0);
     let start = Instant::now();
-    let out = cmd.stdout(Stdio::null()).stderr(Stdio::piped()).output().expect("the command starts");
+    let out = cmd
+        .stdout(Stdio::null())
+        .stderr(Stdio::piped())
+        .output()
+        .expect("the command starts");
     let wall = start.elapsed();
     let cpu = (children_cpu_ticks().unwrap_or(0) - before) as f64 / TICKS_PER_SECOND;
     assert!(
         out.status.success(),
         "{cmd:?} failed: {}\n{}",
         out.status,
-        String::from_utf8_lossy(&out.stderr).chars().take(2000).collect::<String>()
+        String::from_utf8_lossy(&out.stderr)
+            .chars()
+            .take(2000)
+            .collect::<String>()
     );
     // Output goes to /dev/null: `cat`'s bytes, `parax check -q`'s notes.
     (wall, cpu)
@@ -122,7 +129,10 @@ fn main() {
     };
     let cases: [(&str, Box<dyn Fn() -> Command>); 3] = [
         ("cat (one process)", Box::new(cat)),
-        ("parax check -q, RAYON_NUM_THREADS=1", Box::new(move || check(Some(1)))),
+        (
+            "parax check -q, RAYON_NUM_THREADS=1",
+            Box::new(move || check(Some(1))),
+        ),
         ("parax check -q, all cores", Box::new(move || check(None))),
     ];
     // No errors (exit 0); the notes on strong prescriptions are printed, as in use.
@@ -130,11 +140,22 @@ fn main() {
     assert!(
         out.status.success(),
         "parax check on the corpus is not clean:\n{}",
-        String::from_utf8_lossy(&out.stdout).chars().take(4000).collect::<String>()
+        String::from_utf8_lossy(&out.stdout)
+            .chars()
+            .take(4000)
+            .collect::<String>()
     );
-    let notes = String::from_utf8_lossy(&out.stdout).matches(": info P").count();
+    let notes = String::from_utf8_lossy(&out.stdout)
+        .matches(": info P")
+        .count();
 
-    let mut timings: Vec<Timing> = cases.iter().map(|_| Timing { wall: vec![], cpu: vec![] }).collect();
+    let mut timings: Vec<Timing> = cases
+        .iter()
+        .map(|_| Timing {
+            wall: vec![],
+            cpu: vec![],
+        })
+        .collect();
     for (_, make) in &cases {
         run(&mut make()); // warm-up: page cache, binary
     }
@@ -155,7 +176,10 @@ fn main() {
         mb,
         dir.display()
     );
-    println!("binary: {}; parax check prints {notes} note(s) and no error", parax.display());
+    println!(
+        "binary: {}; parax check prints {notes} note(s) and no error",
+        parax.display()
+    );
     println!(
         "{:<38} {:>9} {:>11} {:>8} {:>12} {:>11}",
         "command", "ms", "files/s", "MB/s", "time ÷ cat", "cores busy"
@@ -173,7 +197,10 @@ fn main() {
     }
     let one = timings[1].median().as_secs_f64();
     let all = timings[2].median().as_secs_f64();
-    println!("speed-up, all cores over one thread: {:.2}× on {cores} core(s)", one / all);
+    println!(
+        "speed-up, all cores over one thread: {:.2}× on {cores} core(s)",
+        one / all
+    );
 
     if std::env::var_os("PARAX_BENCH_KEEP").is_none() {
         let _ = std::fs::remove_dir_all(&dir);

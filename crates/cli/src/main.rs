@@ -8,6 +8,7 @@ mod diff_cmd;
 mod eval_cmd;
 mod files;
 mod fmt_cmd;
+mod lsp_cmd;
 mod render;
 mod render_cmd;
 mod stats;
@@ -131,6 +132,8 @@ enum Command {
         /// The case file (`-` reads standard input).
         file: PathBuf,
     },
+    /// Serve the Language Server Protocol on standard input and output (for editors).
+    Lsp,
 }
 
 fn main() -> ExitCode {
@@ -156,6 +159,7 @@ fn main() -> ExitCode {
             group_by,
             format,
         } => stats::run(&paths, group_by, format),
+        Command::Lsp => lsp_cmd::run(),
     };
     ExitCode::from(code)
 }

@@ -49,8 +49,16 @@ impl Set {
                 // differ from Rust's in the last bit, e.g. 0.0075842696629213465.)
                 let back: Case = serde_json::from_str(&json).expect("the JSON reads back");
                 let (derived, _) = evaluate_case(&back);
-                let shown = |d: &[parax_eval::Derived]| d.iter().map(|d| (d.key.clone(), d.text.clone())).collect::<Vec<_>>();
-                assert_eq!(shown(&derived), shown(&ev.derived), "the JSON model derives other values");
+                let shown = |d: &[parax_eval::Derived]| {
+                    d.iter()
+                        .map(|d| (d.key.clone(), d.text.clone()))
+                        .collect::<Vec<_>>()
+                };
+                assert_eq!(
+                    shown(&derived),
+                    shown(&ev.derived),
+                    "the JSON model derives other values"
+                );
                 json
             })
             .collect();
@@ -91,7 +99,10 @@ fn parsed(set: &Set) -> Vec<parax_syntax::Parsed> {
     set.texts.iter().map(|t| parax_syntax::parse(t)).collect()
 }
 fn models(set: &Set) -> Vec<Case> {
-    set.jsons.iter().map(|j| serde_json::from_str(j).expect("valid JSON")).collect()
+    set.jsons
+        .iter()
+        .map(|j| serde_json::from_str(j).expect("valid JSON"))
+        .collect()
 }
 
 /// Per-iteration times of every sample criterion took, by benchmark, so that the
@@ -99,7 +110,13 @@ fn models(set: &Set) -> Vec<Case> {
 type Samples = RefCell<HashMap<&'static str, Vec<Duration>>>;
 
 /// Time `iters` calls of `f`, each after an untimed `setup`, and record the mean.
-fn timed<T>(samples: &Samples, key: &'static str, iters: u64, setup: impl Fn() -> T, f: impl Fn(&T)) -> Duration {
+fn timed<T>(
+    samples: &Samples,
+    key: &'static str,
+    iters: u64,
+    setup: impl Fn() -> T,
+    f: impl Fn(&T),
+) -> Duration {
     let mut total = Duration::ZERO;
     for _ in 0..iters {
         let input = setup();
@@ -108,7 +125,11 @@ fn timed<T>(samples: &Samples, key: &'static str, iters: u64, setup: impl Fn() -
         total += start.elapsed();
         drop(input);
     }
-    samples.borrow_mut().entry(key).or_default().push(total / iters as u32);
+    samples
+        .borrow_mut()
+        .entry(key)
+        .or_default()
+        .push(total / iters as u32);
     total
 }
 
@@ -128,24 +149,38 @@ fn bench_set(c: &mut Criterion, set: &Set) -> HashMap<&'static str, Vec<Duration
         .measurement_time(Duration::from_secs(5))
         .sampling_mode(SamplingMode::Flat);
     g.throughput(Throughput::Bytes(set.text_bytes));
-    g.bench_function(PARSE, |b| b.iter_custom(|n| timed(s, PARSE, n, || (), |_| set.parse())));
-    g.bench_function(FULL, |b| b.iter_custom(|n| timed(s, FULL, n, || (), |_| set.parse_evaluate())));
+    g.bench_function(PARSE, |b| {
+        b.iter_custom(|n| timed(s, PARSE, n, || (), |_| set.parse()))
+    });
+    g.bench_function(FULL, |b| {
+        b.iter_custom(|n| timed(s, FULL, n, || (), |_| set.parse_evaluate()))
+    });
     g.bench_function(LOWER_COMPUTE, |b| {
         b.iter_custom(|n| {
-            timed(s, LOWER_COMPUTE, n, || parsed(set), |trees| {
-                trees.iter().for_each(|p| drop(black_box(evaluate(p))))
-            })
+            timed(
+                s,
+                LOWER_COMPUTE,
+                n,
+                || parsed(set),
+                |trees| trees.iter().for_each(|p| drop(black_box(evaluate(p)))),
+            )
         })
     });
     g.bench_function(COMPUTE, |b| {
         b.iter_custom(|n| {
-            timed(s, COMPUTE, n, || models(set), |cases| {
-                cases.iter().for_each(|c| drop(black_box(evaluate_case(c))))
-            })
+            timed(
+                s,
+                COMPUTE,
+                n,
+                || models(set),
+                |cases| cases.iter().for_each(|c| drop(black_box(evaluate_case(c)))),
+            )
         })
     });
     g.throughput(Throughput::Bytes(set.json_bytes));
-    g.bench_function(DE, |b| b.iter_custom(|n| timed(s, DE, n, || (), |_| set.json_deserialize())));
+    g.bench_function(DE, |b| {
+        b.iter_custom(|n| timed(s, DE, n, || (), |_| set.json_deserialize()))
+    });
     g.bench_function(DE_FULL, |b| {
         b.iter_custom(|n| timed(s, DE_FULL, n, || (), |_| set.json_deserialize_evaluate()))
     });
@@ -162,9 +197,14 @@ fn summary(set: &Set, samples: &HashMap<&'static str, Vec<Duration>>) {
         t.sort();
         Some(t[t.len() / 2])
     };
-    let (Some(parse), Some(full), Some(lower_compute), Some(compute), Some(de), Some(de_full)) =
-        (median(PARSE), median(FULL), median(LOWER_COMPUTE), median(COMPUTE), median(DE), median(DE_FULL))
-    else {
+    let (Some(parse), Some(full), Some(lower_compute), Some(compute), Some(de), Some(de_full)) = (
+        median(PARSE),
+        median(FULL),
+        median(LOWER_COMPUTE),
+        median(COMPUTE),
+        median(DE),
+        median(DE_FULL),
+    ) else {
         return; // a filter left some benchmark out
     };
     let text_model = full.saturating_sub(compute);
@@ -177,7 +217,10 @@ fn summary(set: &Set, samples: &HashMap<&'static str, Vec<Duration>>) {
         set.text_bytes as f64 / 1e6,
         set.json_bytes as f64 / 1e6
     );
-    println!("{:<46} {:>10} {:>12} {:>12}", "step", "ms", "text MB/s", "own MB/s");
+    println!(
+        "{:<46} {:>10} {:>12} {:>12}",
+        "step", "ms", "text MB/s", "own MB/s"
+    );
     let row = |name: &str, d: Duration, own: u64| {
         println!(
             "{name:<46} {:>10.1} {:>12.1} {:>12.1}",
@@ -187,17 +230,41 @@ fn summary(set: &Set, samples: &HashMap<&'static str, Vec<Duration>>) {
         );
     };
     row("parax parse", parse, set.text_bytes);
-    row("parax evaluate (pre-parsed: lower+compute)", lower_compute, set.text_bytes);
+    row(
+        "parax evaluate (pre-parsed: lower+compute)",
+        lower_compute,
+        set.text_bytes,
+    );
     row("parax parse+evaluate", full, set.text_bytes);
-    row("  of which text → model (minus compute)", text_model, set.text_bytes);
-    row("model evaluate_case (compute alone)", compute, set.text_bytes);
+    row(
+        "  of which text → model (minus compute)",
+        text_model,
+        set.text_bytes,
+    );
+    row(
+        "model evaluate_case (compute alone)",
+        compute,
+        set.text_bytes,
+    );
     row("json deserialize", de, set.json_bytes);
     row("json deserialize+evaluate_case", de_full, set.json_bytes);
     println!("ratios (parax time / serde_json time; target ≤ 4×, stretch ≤ 3×):");
-    println!("  text → model + derived  vs JSON → model + derived: {:.2}×", ratio(full, de_full));
-    println!("  text → model (parse+lower) vs JSON → model:        {:.2}×", ratio(text_model, de));
-    println!("  parse alone               vs JSON deserialize:     {:.2}×", ratio(parse, de));
-    println!("  parse+evaluate            vs JSON deserialize:     {:.2}×", ratio(full, de));
+    println!(
+        "  text → model + derived  vs JSON → model + derived: {:.2}×",
+        ratio(full, de_full)
+    );
+    println!(
+        "  text → model (parse+lower) vs JSON → model:        {:.2}×",
+        ratio(text_model, de)
+    );
+    println!(
+        "  parse alone               vs JSON deserialize:     {:.2}×",
+        ratio(parse, de)
+    );
+    println!(
+        "  parse+evaluate            vs JSON deserialize:     {:.2}×",
+        ratio(full, de)
+    );
 }
 
 const SAMPLES: usize = 10;

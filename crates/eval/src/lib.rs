@@ -70,31 +70,43 @@ pub fn evaluate_case(case: &Case) -> (Vec<Derived>, Vec<Diagnostic>) {
     let mut derived = Vec::new();
     let mut diags = Vec::new();
     compute::compute(case, &mut derived, &mut diags);
+    // Each block's values are pushed together; index the range of each block id
+    // once, so checking `expect` lines costs one look-up per block instead of a
+    // scan of every value of the file (quadratic on large files).
+    let mut ranges: std::collections::HashMap<&str, (usize, usize)> =
+        std::collections::HashMap::new();
+    for (i, d) in derived.iter().enumerate() {
+        let block = d
+            .key
+            .strip_suffix(d.name.as_str())
+            .map_or(d.key.as_str(), |b| b.trim_end_matches('.'));
+        let r = ranges.entry(block).or_insert((i, i + 1));
+        r.1 = i + 1;
+    }
+    let of = |id: &str| -> &[Derived] { ranges.get(id).map_or(&[][..], |&(a, b)| &derived[a..b]) };
     for e in &case.eyes {
-        expect::check(&compute::eye_block_id(e), &e.expects, &derived, &mut diags);
+        let id = compute::eye_block_id(e);
+        expect::check(&id, &e.expects, of(&id), &mut diags);
     }
     for s in &case.systems {
-        expect::check(
-            &compute::system_block_id(s),
-            &s.expects,
-            &derived,
-            &mut diags,
-        );
+        let id = compute::system_block_id(s);
+        expect::check(&id, &s.expects, of(&id), &mut diags);
     }
     for f in &case.frames {
-        expect::check(&compute::frame_id(f), &f.expects, &derived, &mut diags);
+        let id = compute::frame_id(f);
+        expect::check(&id, &f.expects, of(&id), &mut diags);
     }
     for l in &case.spectacle_lenses {
         let id = compute::spectacle_block_id(l);
-        expect::check(&id, &l.expects, &derived, &mut diags);
+        expect::check(&id, &l.expects, of(&id), &mut diags);
     }
     for c in &case.contact_lenses {
         let id = compute::contact_block_id(c);
-        expect::check(&id, &c.expects, &derived, &mut diags);
+        expect::check(&id, &c.expects, of(&id), &mut diags);
     }
     for m in &case.model_eyes {
         let id = compute::model_eye_block_id(m);
-        expect::check(&id, &m.expects, &derived, &mut diags);
+        expect::check(&id, &m.expects, of(&id), &mut diags);
     }
     (derived, diags)
 }

@@ -142,7 +142,11 @@ fn eye_block(rng: &mut Rng, out: &mut String, side: &str, visit: Option<&str>, v
     }
     // Most refractions are mild; about one in six is strong enough (over 4 D in a
     // meridian) that parax adds a note on the corneal-plane power, as it should.
-    let s = if rng.chance(0.15) { rng.steps(-10.0, 6.0, 0.25) } else { rng.steps(-3.5, 3.0, 0.25) };
+    let s = if rng.chance(0.15) {
+        rng.steps(-10.0, 6.0, 0.25)
+    } else {
+        rng.steps(-3.5, 3.0, 0.25)
+    };
     let c = if rng.chance(0.2) {
         0.0
     } else {

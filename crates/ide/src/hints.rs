@@ -1,0 +1,81 @@
+//! Inlay hints: the derived values of a line, compact, shown at its end.
+
+use crate::{meets, Analysis};
+use parax_syntax::Span;
+use serde::Serialize;
+
+/// One hint: text shown after the end of a statement line.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct InlayHint {
+    /// Byte offset where the hint stands (the end of the line's text).
+    pub offset: usize,
+    /// The compact text, e.g. `corneal plane -5.38 / -1.29 x 175 · SE -6.50 D`.
+    pub label: String,
+    /// Longer text: each value with its label and source.
+    pub tooltip: String,
+}
+
+/// The values a hint shows for a line, in order of preference; the first two
+/// present are shown. Names not listed never appear in a hint (hover has them all).
+const PREFERRED: &[(&str, &str)] = &[
+    ("corneal-plane", "cornea"),
+    ("spherical-equivalent", "SE"),
+    ("near-refraction", "near"),
+    ("mean-k", "K"),
+    ("corneal-cylinder", "cyl"),
+    ("total-corneal-power", "total K"),
+    ("image", "image"),
+    ("magnification", "mag"),
+    ("equivalent-power", "F"),
+];
+
+/// Hints for every statement line that meets `range` (the whole file when `None`).
+pub fn inlay_hints(a: &Analysis, range: Option<Span>) -> Vec<InlayHint> {
+    let mut out = Vec::new();
+    for line in &a.parsed.lines {
+        if let Some(r) = range {
+            if !meets(r, line.span) {
+                continue;
+            }
+        }
+        if line.statement().is_none() {
+            continue;
+        }
+        let here: Vec<_> = a.derived_on_line(line).collect();
+        if here.is_empty() {
+            continue;
+        }
+        let mut parts = Vec::new();
+        for (name, short) in PREFERRED {
+            // Per-lens values are keyed `LABEL.image`; the whole system's image is `image`.
+            // The whole system's value wins over a per-lens one on the same line.
+            let exact = here.iter().find(|d| d.name == *name);
+            let per_lens = || here.iter().find(|d| d.name.ends_with(&format!(".{name}")));
+            if let Some(d) = exact.or_else(per_lens) {
+                parts.push(format!("{short} {}", d.text));
+            }
+            if parts.len() == 2 {
+                break;
+            }
+        }
+        if parts.is_empty() {
+            continue;
+        }
+        let tooltip = here
+            .iter()
+            .map(|d| format!("{}: {}  [{}]", d.label, d.text, d.name))
+            .collect::<Vec<_>>()
+            .join("\n");
+        // End of the text before any trailing comment, so the hint reads after the values.
+        let end = match line.comment {
+            Some(c) => a.parsed.source[line.span.start..c.start].trim_end().len() + line.span.start,
+            None => line.span.end,
+        };
+        out.push(InlayHint {
+            offset: end,
+            label: parts.join(" · "),
+            tooltip,
+        });
+    }
+    out
+}

@@ -1,0 +1,96 @@
+//! Editor features as plain functions over one parsed and evaluated case file:
+//! inlay hints, hover, completion, code actions, document symbols, folding
+//! ranges, semantic tokens, lens-label navigation and formatting. Byte offsets in,
+//! plain data out; nothing here knows the Language Server Protocol, so the
+//! language server, the command line and tests share the same code.
+
+pub mod actions;
+pub mod complete;
+pub mod format;
+pub mod hints;
+pub mod hover;
+pub mod labels;
+pub mod outline;
+pub mod tokens;
+
+use parax_eval::{Derived, Evaluation};
+use parax_syntax::{Block, BlockKind, Line, Parsed, Span};
+
+pub use parax_eval::Edit;
+
+/// One case file, parsed and evaluated: the input of every feature.
+#[derive(Debug, Clone)]
+pub struct Analysis {
+    /// The syntax tree.
+    pub parsed: Parsed,
+    /// Derived values and diagnostics.
+    pub evaluation: Evaluation,
+    /// Indices into `evaluation.derived`, ordered by where each value's
+    /// statement starts, so the values of one line are found by binary search.
+    by_start: Vec<usize>,
+}
+
+impl Analysis {
+    /// Parse and evaluate `source`.
+    pub fn new(source: &str) -> Self {
+        let (parsed, evaluation) = parax_eval::evaluate_source(source);
+        let mut by_start: Vec<usize> = (0..evaluation.derived.len()).collect();
+        by_start.sort_by_key(|&i| evaluation.derived[i].span.start);
+        Analysis {
+            parsed,
+            evaluation,
+            by_start,
+        }
+    }
+
+    /// The source text.
+    pub fn source(&self) -> &str {
+        &self.parsed.source
+    }
+
+    /// Index of the line holding byte `offset` (clamped to the text).
+    pub fn line_at(&self, offset: usize) -> usize {
+        self.parsed
+            .index
+            .line_of(offset.min(self.parsed.source.len()))
+            .min(self.parsed.lines.len().saturating_sub(1))
+    }
+
+    /// The block a line belongs to; a blank or comment line after a block's last
+    /// statement counts as inside it when indented or empty (where one types next).
+    pub fn block_around(&self, line: usize) -> Option<&Block> {
+        if let Some(b) = self.parsed.block_of_line(line) {
+            return Some(b);
+        }
+        let l = self.parsed.lines.get(line)?;
+        let text = self.parsed.text(l.span);
+        if text.starts_with([' ', '\t']) || text.is_empty() {
+            self.parsed.blocks.iter().rev().find(|b| b.header < line)
+        } else {
+            None
+        }
+    }
+
+    /// Derived values whose statement lies on `line`.
+    pub fn derived_on_line(&self, line: &Line) -> impl Iterator<Item = &Derived> + '_ {
+        let span = line.span;
+        let derived = &self.evaluation.derived;
+        let first = self
+            .by_start
+            .partition_point(|&i| derived[i].span.start < span.start);
+        self.by_start[first..]
+            .iter()
+            .map(move |&i| &derived[i])
+            .take_while(move |d| d.span.start <= span.end)
+    }
+
+    /// The kind of the block that holds `line`, if any.
+    pub fn block_kind(&self, line: usize) -> Option<BlockKind> {
+        self.block_around(line).map(|b| b.kind)
+    }
+}
+
+/// True when two spans overlap or touch.
+pub(crate) fn meets(a: Span, b: Span) -> bool {
+    a.start <= b.end && b.start <= a.end
+}

@@ -1,0 +1,552 @@
+//! The `LanguageServer` implementation. Edits are applied under a plain mutex
+//! before any `.await`, so concurrently running handlers never reorder them.
+//! Evaluation runs on a worker task (and on the blocking pool): a change only
+//! marks its document dirty and wakes the worker, so changes that arrive while
+//! one evaluation runs are merged and only the newest text is evaluated.
+
+use crate::convert;
+use crate::documents::apply_change;
+use parax_ide::{actions, complete, format, hints, hover, labels, outline, tokens, Analysis};
+use parax_syntax::ColumnUnit;
+use ropey::Rope;
+use std::collections::{BTreeSet, HashMap};
+use std::sync::{Arc, Mutex};
+use tokio::sync::Notify;
+use tower_lsp_server::jsonrpc::Result;
+use tower_lsp_server::ls_types::*;
+use tower_lsp_server::{Client, LanguageServer};
+
+struct Doc {
+    uri: Uri,
+    rope: Rope,
+    version: i32,
+    analysis: Option<(i32, Arc<Analysis>)>,
+}
+
+#[derive(Default)]
+struct State {
+    docs: HashMap<String, Doc>,
+    dirty: BTreeSet<String>,
+    unit: Option<ColumnUnit>,
+    worker_started: bool,
+}
+
+/// The server: shared state plus the client handle.
+pub struct Server {
+    client: Client,
+    state: Arc<Mutex<State>>,
+    wake: Arc<Notify>,
+}
+
+impl Server {
+    /// A server talking to `client`.
+    pub fn new(client: Client) -> Self {
+        Server {
+            client,
+            state: Arc::new(Mutex::new(State::default())),
+            wake: Arc::new(Notify::new()),
+        }
+    }
+
+    fn lock(&self) -> std::sync::MutexGuard<'_, State> {
+        // A panic in another handler must not take the server down with it.
+        self.state.lock().unwrap_or_else(|p| p.into_inner())
+    }
+
+    fn unit(&self) -> ColumnUnit {
+        self.lock().unit.unwrap_or(ColumnUnit::Utf16)
+    }
+
+    fn mark_dirty(&self, key: String) {
+        let start = {
+            let mut st = self.lock();
+            st.dirty.insert(key);
+            !std::mem::replace(&mut st.worker_started, true)
+        };
+        if start {
+            tokio::spawn(worker(
+                self.client.clone(),
+                self.state.clone(),
+                self.wake.clone(),
+            ));
+        }
+        self.wake.notify_one();
+    }
+
+    /// The analysis of the document's current text: cached when the newest
+    /// version has been evaluated, computed now otherwise.
+    async fn analysis(&self, uri: &Uri) -> Option<(Arc<Analysis>, ColumnUnit)> {
+        let (text, version) = {
+            let st = self.lock();
+            let doc = st.docs.get(uri.as_str())?;
+            if let Some((v, a)) = &doc.analysis {
+                if *v == doc.version {
+                    return Some((a.clone(), st.unit.unwrap_or(ColumnUnit::Utf16)));
+                }
+            }
+            (doc.rope.to_string(), doc.version)
+        };
+        let a = Arc::new(
+            tokio::task::spawn_blocking(move || Analysis::new(&text))
+                .await
+                .ok()?,
+        );
+        let mut st = self.lock();
+        let unit = st.unit.unwrap_or(ColumnUnit::Utf16);
+        if let Some(doc) = st.docs.get_mut(uri.as_str()) {
+            if doc.version == version {
+                doc.analysis = Some((version, a.clone()));
+            }
+        }
+        Some((a, unit))
+    }
+}
+
+/// Evaluate dirty documents and publish their diagnostics, newest version only.
+async fn worker(client: Client, state: Arc<Mutex<State>>, wake: Arc<Notify>) {
+    loop {
+        wake.notified().await;
+        loop {
+            let job = {
+                let mut st = state.lock().unwrap_or_else(|p| p.into_inner());
+                let Some(key) = st.dirty.pop_first() else {
+                    break;
+                };
+                let unit = st.unit.unwrap_or(ColumnUnit::Utf16);
+                st.docs
+                    .get(&key)
+                    .map(|d| (key, d.uri.clone(), d.rope.to_string(), d.version, unit))
+            };
+            let Some((key, uri, text, version, unit)) = job else {
+                continue;
+            };
+            let Ok(a) = tokio::task::spawn_blocking(move || Analysis::new(&text)).await else {
+                continue;
+            };
+            let a = Arc::new(a);
+            let current = {
+                let mut st = state.lock().unwrap_or_else(|p| p.into_inner());
+                match st.docs.get_mut(&key) {
+                    Some(doc) if doc.version == version => {
+                        doc.analysis = Some((version, a.clone()));
+                        true
+                    }
+                    _ => false,
+                }
+            };
+            // A newer version arrived meanwhile: it is dirty again and will be published.
+            if current {
+                let diags = a
+                    .evaluation
+                    .diagnostics
+                    .iter()
+                    .map(|d| convert::diagnostic(&a, d, unit))
+                    .collect();
+                client.publish_diagnostics(uri, diags, Some(version)).await;
+            }
+        }
+    }
+}
+
+fn token_type(c: tokens::TokenClass) -> SemanticTokenType {
+    use tokens::TokenClass as T;
+    match c {
+        T::BlockKeyword => SemanticTokenType::NAMESPACE,
+        T::Keyword => SemanticTokenType::KEYWORD,
+        T::Number => SemanticTokenType::NUMBER,
+        T::Unit => SemanticTokenType::TYPE,
+        T::Text => SemanticTokenType::STRING,
+        T::Date => SemanticTokenType::ENUM,
+        T::Operator => SemanticTokenType::OPERATOR,
+        T::Label => SemanticTokenType::VARIABLE,
+        T::Word => SemanticTokenType::ENUM_MEMBER,
+        T::Comment => SemanticTokenType::COMMENT,
+    }
+}
+
+fn symbol(a: &Analysis, s: &outline::Symbol, unit: ColumnUnit) -> DocumentSymbol {
+    #[allow(deprecated)]
+    DocumentSymbol {
+        name: s.name.clone(),
+        detail: Some(s.detail.clone()),
+        kind: if s.block.is_some() {
+            SymbolKind::NAMESPACE
+        } else {
+            SymbolKind::VARIABLE
+        },
+        tags: None,
+        deprecated: None,
+        range: convert::range(a, s.span, unit),
+        selection_range: convert::range(a, s.selection, unit),
+        children: Some(s.children.iter().map(|c| symbol(a, c, unit)).collect()),
+    }
+}
+
+impl LanguageServer for Server {
+    async fn initialize(&self, params: InitializeParams) -> Result<InitializeResult> {
+        let offered = params
+            .capabilities
+            .general
+            .as_ref()
+            .and_then(|g| g.position_encodings.as_ref())
+            .is_some_and(|e| e.contains(&PositionEncodingKind::UTF8));
+        let (unit, kind) = if offered {
+            (ColumnUnit::Utf8, PositionEncodingKind::UTF8)
+        } else {
+            (ColumnUnit::Utf16, PositionEncodingKind::UTF16)
+        };
+        self.lock().unit = Some(unit);
+        Ok(InitializeResult {
+            offset_encoding: None,
+            server_info: Some(ServerInfo {
+                name: "parax".into(),
+                version: Some(env!("CARGO_PKG_VERSION").into()),
+            }),
+            capabilities: ServerCapabilities {
+                position_encoding: Some(kind),
+                text_document_sync: Some(TextDocumentSyncCapability::Kind(
+                    TextDocumentSyncKind::INCREMENTAL,
+                )),
+                hover_provider: Some(HoverProviderCapability::Simple(true)),
+                completion_provider: Some(CompletionOptions {
+                    trigger_characters: Some(vec![" ".into()]),
+                    ..Default::default()
+                }),
+                inlay_hint_provider: Some(OneOf::Left(true)),
+                document_formatting_provider: Some(OneOf::Left(true)),
+                document_range_formatting_provider: Some(OneOf::Left(true)),
+                code_action_provider: Some(CodeActionProviderCapability::Simple(true)),
+                document_symbol_provider: Some(OneOf::Left(true)),
+                folding_range_provider: Some(FoldingRangeProviderCapability::Simple(true)),
+                definition_provider: Some(OneOf::Left(true)),
+                references_provider: Some(OneOf::Left(true)),
+                semantic_tokens_provider: Some(
+                    SemanticTokensServerCapabilities::SemanticTokensOptions(
+                        SemanticTokensOptions {
+                            legend: SemanticTokensLegend {
+                                token_types: tokens::TokenClass::ALL
+                                    .iter()
+                                    .map(|c| token_type(*c))
+                                    .collect(),
+                                token_modifiers: vec![],
+                            },
+                            full: Some(SemanticTokensFullOptions::Bool(true)),
+                            range: None,
+                            ..Default::default()
+                        },
+                    ),
+                ),
+                ..Default::default()
+            },
+        })
+    }
+
+    async fn shutdown(&self) -> Result<()> {
+        Ok(())
+    }
+
+    async fn did_open(&self, params: DidOpenTextDocumentParams) {
+        let d = params.text_document;
+        let key = d.uri.as_str().to_string();
+        {
+            let mut st = self.lock();
+            st.docs.insert(
+                key.clone(),
+                Doc {
+                    uri: d.uri,
+                    rope: Rope::from_str(&d.text),
+                    version: d.version,
+                    analysis: None,
+                },
+            );
+        }
+        self.mark_dirty(key);
+    }
+
+    async fn did_change(&self, params: DidChangeTextDocumentParams) {
+        let key = params.text_document.uri.as_str().to_string();
+        // Applied under the lock, before any await: edits are never reordered.
+        let outcome: std::result::Result<(), String> = {
+            let mut st = self.lock();
+            let unit = st.unit.unwrap_or(ColumnUnit::Utf16);
+            match st.docs.get_mut(&key) {
+                None => Err(format!("change to a document that is not open: {key}")),
+                Some(doc) => {
+                    // Work on a clone (cheap: ropes share their chunks) so a bad
+                    // change leaves the document as it was.
+                    let mut rope = doc.rope.clone();
+                    let mut result = Ok(());
+                    for c in &params.content_changes {
+                        let range = c.range.map(|r| {
+                            (
+                                (r.start.line, r.start.character),
+                                (r.end.line, r.end.character),
+                            )
+                        });
+                        if let Err(e) = apply_change(&mut rope, range, &c.text, unit) {
+                            result = Err(format!(
+                                "rejected an edit to {key} (version {}): {e}",
+                                params.text_document.version
+                            ));
+                            break;
+                        }
+                    }
+                    if result.is_ok() {
+                        doc.rope = rope;
+                        doc.version = params.text_document.version;
+                    }
+                    result
+                }
+            }
+        };
+        match outcome {
+            Ok(()) => self.mark_dirty(key),
+            Err(msg) => {
+                eprintln!("parax lsp: {msg}");
+                self.client.log_message(MessageType::ERROR, msg).await;
+            }
+        }
+    }
+
+    async fn did_close(&self, params: DidCloseTextDocumentParams) {
+        let uri = params.text_document.uri;
+        self.lock().docs.remove(uri.as_str());
+        self.client.publish_diagnostics(uri, Vec::new(), None).await;
+    }
+
+    async fn hover(&self, params: HoverParams) -> Result<Option<Hover>> {
+        let p = params.text_document_position_params;
+        let Some((a, unit)) = self.analysis(&p.text_document.uri).await else {
+            return Ok(None);
+        };
+        let off = convert::offset(&a, p.position, unit);
+        Ok(hover::hover(&a, off).map(|h| Hover {
+            contents: HoverContents::Markup(MarkupContent {
+                kind: MarkupKind::Markdown,
+                value: h.markdown,
+            }),
+            range: Some(convert::range(&a, h.span, unit)),
+        }))
+    }
+
+    async fn inlay_hint(&self, params: InlayHintParams) -> Result<Option<Vec<InlayHint>>> {
+        let Some((a, unit)) = self.analysis(&params.text_document.uri).await else {
+            return Ok(None);
+        };
+        let span = convert::span(&a, params.range, unit);
+        Ok(Some(
+            hints::inlay_hints(&a, Some(span))
+                .into_iter()
+                .map(|h| InlayHint {
+                    position: convert::position(&a, h.offset, unit),
+                    label: InlayHintLabel::String(h.label),
+                    kind: None,
+                    text_edits: None,
+                    tooltip: Some(InlayHintTooltip::String(h.tooltip)),
+                    padding_left: Some(true),
+                    padding_right: None,
+                    data: None,
+                })
+                .collect(),
+        ))
+    }
+
+    async fn completion(&self, params: CompletionParams) -> Result<Option<CompletionResponse>> {
+        let p = params.text_document_position;
+        let Some((a, unit)) = self.analysis(&p.text_document.uri).await else {
+            return Ok(None);
+        };
+        let off = convert::offset(&a, p.position, unit);
+        let items = complete::complete(&a, off)
+            .into_iter()
+            .map(|i| {
+                let kind = match i.kind {
+                    complete::ItemKind::Block => CompletionItemKind::MODULE,
+                    complete::ItemKind::Keyword => CompletionItemKind::KEYWORD,
+                    complete::ItemKind::Unit => CompletionItemKind::UNIT,
+                    complete::ItemKind::Label => CompletionItemKind::VARIABLE,
+                    complete::ItemKind::Value => CompletionItemKind::VALUE,
+                    complete::ItemKind::Word => CompletionItemKind::ENUM_MEMBER,
+                };
+                CompletionItem {
+                    label: i.label.clone(),
+                    kind: Some(kind),
+                    detail: Some(i.detail),
+                    text_edit: Some(CompletionTextEdit::Edit(TextEdit::new(
+                        convert::range(&a, i.replace, unit),
+                        i.label,
+                    ))),
+                    ..Default::default()
+                }
+            })
+            .collect();
+        Ok(Some(CompletionResponse::Array(items)))
+    }
+
+    async fn formatting(&self, params: DocumentFormattingParams) -> Result<Option<Vec<TextEdit>>> {
+        let Some((a, unit)) = self.analysis(&params.text_document.uri).await else {
+            return Ok(None);
+        };
+        Ok(Some(convert::edits(&a, &format::format_document(&a), unit)))
+    }
+
+    async fn range_formatting(
+        &self,
+        params: DocumentRangeFormattingParams,
+    ) -> Result<Option<Vec<TextEdit>>> {
+        let Some((a, unit)) = self.analysis(&params.text_document.uri).await else {
+            return Ok(None);
+        };
+        let span = convert::span(&a, params.range, unit);
+        Ok(Some(convert::edits(
+            &a,
+            &format::format_range(&a, span),
+            unit,
+        )))
+    }
+
+    async fn code_action(&self, params: CodeActionParams) -> Result<Option<CodeActionResponse>> {
+        let uri = params.text_document.uri;
+        let Some((a, unit)) = self.analysis(&uri).await else {
+            return Ok(None);
+        };
+        let span = convert::span(&a, params.range, unit);
+        let out = actions::code_actions(&a, span)
+            .into_iter()
+            .map(|x| {
+                let kind = match x.kind {
+                    actions::ActionKind::QuickFix => CodeActionKind::QUICKFIX,
+                    actions::ActionKind::Rewrite => CodeActionKind::REFACTOR_REWRITE,
+                    actions::ActionKind::Record => CodeActionKind::REFACTOR,
+                };
+                let mut changes = HashMap::new();
+                changes.insert(uri.clone(), convert::edits(&a, &x.edits, unit));
+                CodeActionOrCommand::CodeAction(CodeAction {
+                    title: x.title,
+                    kind: Some(kind),
+                    diagnostics: x
+                        .diagnostic
+                        .map(|i| vec![convert::diagnostic(&a, &a.evaluation.diagnostics[i], unit)]),
+                    edit: Some(WorkspaceEdit {
+                        changes: Some(changes),
+                        ..Default::default()
+                    }),
+                    is_preferred: Some(x.diagnostic.is_some()),
+                    ..Default::default()
+                })
+            })
+            .collect();
+        Ok(Some(out))
+    }
+
+    async fn document_symbol(
+        &self,
+        params: DocumentSymbolParams,
+    ) -> Result<Option<DocumentSymbolResponse>> {
+        let Some((a, unit)) = self.analysis(&params.text_document.uri).await else {
+            return Ok(None);
+        };
+        Ok(Some(DocumentSymbolResponse::Nested(
+            outline::symbols(&a)
+                .iter()
+                .map(|s| symbol(&a, s, unit))
+                .collect(),
+        )))
+    }
+
+    async fn folding_range(&self, params: FoldingRangeParams) -> Result<Option<Vec<FoldingRange>>> {
+        let Some((a, _)) = self.analysis(&params.text_document.uri).await else {
+            return Ok(None);
+        };
+        Ok(Some(
+            outline::folds(&a)
+                .into_iter()
+                .map(|f| FoldingRange {
+                    start_line: f.start_line as u32,
+                    end_line: f.end_line as u32,
+                    kind: Some(if f.comment {
+                        FoldingRangeKind::Comment
+                    } else {
+                        FoldingRangeKind::Region
+                    }),
+                    ..Default::default()
+                })
+                .collect(),
+        ))
+    }
+
+    async fn semantic_tokens_full(
+        &self,
+        params: SemanticTokensParams,
+    ) -> Result<Option<SemanticTokensResult>> {
+        let Some((a, unit)) = self.analysis(&params.text_document.uri).await else {
+            return Ok(None);
+        };
+        let mut data = Vec::new();
+        let (mut line, mut col) = (0u32, 0u32);
+        for t in tokens::tokens(&a) {
+            let s = convert::position(&a, t.span.start, unit);
+            let e = convert::position(&a, t.span.end, unit);
+            let delta_line = s.line - line;
+            let delta_start = if delta_line == 0 {
+                s.character - col
+            } else {
+                s.character
+            };
+            data.push(SemanticToken {
+                delta_line,
+                delta_start,
+                length: e.character.saturating_sub(s.character),
+                token_type: tokens::TokenClass::ALL
+                    .iter()
+                    .position(|c| *c == t.class)
+                    .unwrap_or(0) as u32,
+                token_modifiers_bitset: 0,
+            });
+            line = s.line;
+            col = s.character;
+        }
+        Ok(Some(SemanticTokensResult::Tokens(SemanticTokens {
+            result_id: None,
+            data,
+        })))
+    }
+
+    async fn goto_definition(
+        &self,
+        params: GotoDefinitionParams,
+    ) -> Result<Option<GotoDefinitionResponse>> {
+        let p = params.text_document_position_params;
+        let Some((a, unit)) = self.analysis(&p.text_document.uri).await else {
+            return Ok(None);
+        };
+        let off = convert::offset(&a, p.position, unit);
+        Ok(labels::definition(&a, off).map(|s| {
+            GotoDefinitionResponse::Scalar(Location::new(
+                p.text_document.uri.clone(),
+                convert::range(&a, s, unit),
+            ))
+        }))
+    }
+
+    async fn references(&self, params: ReferenceParams) -> Result<Option<Vec<Location>>> {
+        let p = params.text_document_position;
+        let Some((a, unit)) = self.analysis(&p.text_document.uri).await else {
+            return Ok(None);
+        };
+        let off = convert::offset(&a, p.position, unit);
+        Ok(Some(
+            labels::references(&a, off, params.context.include_declaration)
+                .into_iter()
+                .map(|s| Location::new(p.text_document.uri.clone(), convert::range(&a, s, unit)))
+                .collect(),
+        ))
+    }
+}
+
+impl Server {
+    /// The encoding columns are counted in (UTF-16 until `initialize` says otherwise).
+    pub fn column_unit(&self) -> ColumnUnit {
+        self.unit()
+    }
+}

@@ -1,0 +1,2 @@
+-- Files ending in .parax are parax case files.
+vim.filetype.add({ extension = { parax = "parax" } })
