@@ -19,6 +19,9 @@ const RUNS: usize = 5;
 
 /// The `parax` binary of this build. Cargo builds the package's binaries for its
 /// benchmarks (with the same `bench` profile) and names the path here.
+/// Builds the command to time, once per run.
+type CommandMaker<'a> = Box<dyn Fn() -> Command + 'a>;
+
 fn parax_binary() -> PathBuf {
     let p = PathBuf::from(env!("CARGO_BIN_EXE_parax"));
     assert!(
@@ -127,7 +130,7 @@ fn main() {
         };
         c
     };
-    let cases: [(&str, Box<dyn Fn() -> Command>); 3] = [
+    let cases: [(&str, CommandMaker<'_>); 3] = [
         ("cat (one process)", Box::new(cat)),
         (
             "parax check -q, RAYON_NUM_THREADS=1",
