@@ -52,4 +52,9 @@ codes! {
     REFRACTION_CHANGE = "P0608", "refraction change between visits", "The refraction changed by 0.50 D or more per year (blur strength of the change, per year) between two dated visits.";
     INPUTS_INCOMPLETE = "P0609", "inputs incomplete", "A contact-lens or model-eye block lacks an input that its values need (a refraction with its vertex distance, keratometry, a schematic eye to start from, a surface that exists); the message names it.";
     IOL_CAUTION = "P0610", "intraocular lens power", "IOL powers were computed: biometry, constants and the choice of lens belong to the surgeon; a warning when refractive surgery is recorded, since neither formula is valid after it without adjustment.";
+    BLANK_TOO_SMALL = "P0611", "blank too small", "The recorded blank diameter is smaller than the minimum blank size for the frame shape: effective diameter plus twice the decentration of the optical centre.";
+    MATERIAL = "P0612", "lens material", "The material is not in the table of common materials (record its index), or the recorded index does not match the material named.";
+    MOUNTED_IMBALANCE = "P0613", "mounted pair out of tolerance", "The prism imbalance of the received pair at the pupils (from the measured powers and the centre distance against the PDs) exceeds ANSI Z80.1-2015's mounted-pair tolerance; the message shows the band.";
+    CONTACT_POWER_DIFFERS = "P0614", "contact lens power differs", "The contact lens power ordered differs by 0.25 D or more in some meridian from the power computed from the refraction (and tear lens).";
+    CONTACT_DIAMETER = "P0615", "unusual contact lens diameter", "The total diameter is outside the usual range for the lens type (soft 13.0 to 15.0 mm, rigid corneal 8.0 to 10.5 mm); a plausibility check only.";
 }

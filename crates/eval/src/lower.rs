@@ -115,6 +115,7 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
                     add: None,
                     prism: None,
                     index: None,
+                    material: None,
                     base_curve: None,
                     centre_thickness: None,
                     edge_thickness: None,
@@ -136,6 +137,8 @@ fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagn
                     span: header_span,
                     base_curve: None,
                     kind: None,
+                    power: None,
+                    diameter: None,
                     expects: Vec::new(),
                 }),
                 None => Target::Skip,
@@ -338,6 +341,20 @@ fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str
             "refractive-surgery" => eye.refractive_surgery = at(Some(r.rest()), span),
             _ => {}
         },
+        Target::Frame(f) if kw == "boxed-lens-size" => {
+            let width = r.quantity(&u::BOXED_SIZE, form);
+            let height = if r.axis_sign_if() {
+                r.quantity(&u::BOXED_SIZE, form)
+            } else {
+                r.missing("`x HEIGHT mm` (the vertical boxed lens size)", form)
+            };
+            if let (Some(w), Some(h)) = (width, height) {
+                f.boxed_lens_size = Some(At {
+                    value: (w, h),
+                    span,
+                });
+            }
+        }
         Target::Frame(f) => {
             let spec = match kw {
                 "vertex" => &u::VERTEX,
@@ -346,6 +363,8 @@ fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str
                 "fitting-height" => &u::FITTING_HEIGHT,
                 "reading-drop" => &u::READING_DROP,
                 "near-inset" => &u::NEAR_INSET,
+                "distance-between-lenses" => &u::DISTANCE_BETWEEN_LENSES,
+                "effective-diameter" => &u::EFFECTIVE_DIAMETER,
                 _ => &u::CENTRE_DISTANCE,
             };
             let v = at(r.quantity(spec, form), span);
@@ -356,6 +375,8 @@ fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str
                 "fitting-height" => &mut f.fitting_height,
                 "reading-drop" => &mut f.reading_drop,
                 "near-inset" => &mut f.near_inset,
+                "distance-between-lenses" => &mut f.distance_between_lenses,
+                "effective-diameter" => &mut f.effective_diameter,
                 _ => &mut f.centre_distance,
             };
             *slot = v;
@@ -468,9 +489,7 @@ fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str
             "measured-prism" => l.measured_prism = at(read_prism(r, form), span),
             "measured-add" => l.measured_add = at(r.quantity(&u::ADD, form), span),
             "index" => l.index = at(r.quantity(&u::INDEX, form), span),
-            "material" => {
-                r.text_value("the material name", form);
-            }
+            "material" => l.material = at(r.text_value("the material name", form), span),
             "base-curve" => l.base_curve = at(r.quantity(&u::BASE_CURVE_POWER, form), span),
             "centre-thickness" => {
                 l.centre_thickness = at(r.quantity(&u::LENS_THICKNESS, form), span)
@@ -487,12 +506,8 @@ fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str
                     span,
                 )
             }
-            "power" => {
-                r.rx(form);
-            }
-            _ => {
-                r.quantity(&u::DIAMETER, form);
-            }
+            "power" => c.power = at(r.rx(form), span),
+            _ => c.diameter = at(r.quantity(&u::DIAMETER, form), span),
         },
         Target::Model(m) => match kw {
             "from" => {

@@ -136,6 +136,15 @@ pub struct Frame {
     pub near_inset: Option<At<f64>>,
     /// Distance between the optical centres, metres.
     pub centre_distance: Option<At<f64>>,
+    /// Boxed lens size (horizontal, vertical), metres.
+    #[serde(default)]
+    pub boxed_lens_size: Option<At<(f64, f64)>>,
+    /// Distance between lenses (bridge, boxed system), metres.
+    #[serde(default)]
+    pub distance_between_lenses: Option<At<f64>>,
+    /// Effective diameter of the lens shape, metres.
+    #[serde(default)]
+    pub effective_diameter: Option<At<f64>>,
     /// `expect` lines.
     pub expects: Vec<Expect>,
 }
@@ -164,6 +173,9 @@ pub struct SpectacleLens {
     pub prism: Option<At<PrismRx>>,
     /// Refractive index of the material.
     pub index: Option<At<f64>>,
+    /// Material name, as recorded.
+    #[serde(default)]
+    pub material: Option<At<String>>,
     /// Front surface power, D.
     pub base_curve: Option<At<f64>>,
     /// Centre thickness, metres.
@@ -195,6 +207,12 @@ pub struct ContactLens {
     pub base_curve: Option<At<f64>>,
     /// `rigid` or `soft`.
     pub kind: Option<At<String>>,
+    /// Back vertex power ordered.
+    #[serde(default)]
+    pub power: Option<At<Rx>>,
+    /// Total diameter, metres.
+    #[serde(default)]
+    pub diameter: Option<At<f64>>,
     /// `expect` lines.
     pub expects: Vec<Expect>,
 }

@@ -29,13 +29,6 @@ const fn kw(name: &'static str, form: &'static str, doc: &'static str) -> Keywor
     }
 }
 
-const fn later(k: KeywordSpec) -> KeywordSpec {
-    KeywordSpec {
-        evaluated: false,
-        ..k
-    }
-}
-
 const fn many(k: KeywordSpec) -> KeywordSpec {
     KeywordSpec {
         repeatable: true,
@@ -123,11 +116,11 @@ const FRAME: &[KeywordSpec] = &[
     ),
     kw("pantoscopic-tilt", "ANGLE deg", "pantoscopic tilt"),
     kw("face-form", "ANGLE deg", "face form (wrap) angle"),
-    later(kw(
+    kw(
         "fitting-height",
         "LENGTH mm",
         "height of the pupil centre above the lowest point of the rim",
-    )),
+    ),
     kw(
         "reading-drop",
         "LENGTH mm",
@@ -143,6 +136,21 @@ const FRAME: &[KeywordSpec] = &[
         "LENGTH mm",
         "distance between the optical centres",
     ),
+    kw(
+        "boxed-lens-size",
+        "WIDTH mm x HEIGHT mm",
+        "horizontal and vertical boxed lens size of the frame shape",
+    ),
+    kw(
+        "distance-between-lenses",
+        "LENGTH mm",
+        "distance between the boxed lens shapes (bridge)",
+    ),
+    kw(
+        "effective-diameter",
+        "LENGTH mm",
+        "twice the longest radius of the lens shape from its boxed centre",
+    ),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,
 ];
@@ -156,7 +164,11 @@ const SPECTACLE_LENS: &[KeywordSpec] = &[
         "prescribed prism and base direction (BU, BD, BI, BO)",
     ),
     kw("index", "N", "refractive index of the material"),
-    later(kw("material", "\"TEXT\"", "material name")),
+    kw(
+        "material",
+        "\"TEXT\"",
+        "material name (index and minimum thickness from a table)",
+    ),
     kw("base-curve", "POWER", "front surface power"),
     kw("centre-thickness", "LENGTH mm", "centre thickness"),
     kw("edge-thickness", "LENGTH mm", "edge thickness"),
@@ -182,13 +194,17 @@ const SPECTACLE_LENS: &[KeywordSpec] = &[
 
 const CONTACT_LENS: &[KeywordSpec] = &[
     kw("base-curve", "RADIUS mm", "back optic zone radius"),
-    later(kw(
+    kw(
         "power",
         "SPHERE [/ CYLINDER x AXIS]",
-        "back vertex power",
-    )),
+        "back vertex power ordered, compared with the computed power",
+    ),
     kw("kind", "rigid | soft", "lens type"),
-    later(kw("diameter", "LENGTH mm", "total diameter")),
+    kw(
+        "diameter",
+        "LENGTH mm",
+        "total diameter (plausibility for the lens type only)",
+    ),
     many(kw("note", "\"TEXT\"", "a free note")),
     EXPECT,
 ];

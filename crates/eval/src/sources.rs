@@ -52,6 +52,11 @@ source!(OC_DROP, "CP", "lower the optical centre about 0.5 mm per degree of pant
 source!(PRENTICE, "S", "Prentice's rule P = c·F, vector form with the dioptric power matrix: Keating, Geometric, Physical, and Visual Optics, 2nd ed. 2002");
 source!(PRISM_TOLERANCE, "CP", "about 1Δ vertical and 3Δ horizontal before symptoms; slab-off worth considering above about 1.5Δ vertical at the reading point (Optician CPD article; common practice)");
 source!(SAG, "S", "exact sag s = r − √(r² − y²), edge = centre + s_back − s_front: J. Loomis, Univ. of Dayton course notes \"Sags and Edge Thickness\"");
+source!(BLANK_SIZE, "CP", "decentration from the boxed centre (boxed system, ISO 13666 terms) and minimum blank size = effective diameter + 2 × decentration (common practice, no source)");
+source!(MATERIAL_TABLE, "CP", "indices and minimum thicknesses of common lens materials as catalogues and laboratories quote them (common practice, no single source)");
+source!(MOUNTED_PAIR, "S", "ANSI Z80.1-2015, mounted pair: vertical imbalance 0.33Δ up to 3.375 D, horizontal 0.67Δ up to 2.75 D (quick reference guide); the ±2.5 mm centre-distance alternative above 2.75 D [M]");
+source!(CONTACT_ORDER, "CP", "ordered power compared meridian by meridian with the computed power (power matrices); a difference of one 0.25 D step flagged (common practice)");
+source!(OC_HEIGHT, "CP", "optical centre set below the pupil by the optical-centre drop for the tilt, 0.5 mm per degree (common practice, no source)");
 source!(MATERIAL_MINIMUMS, "CP", "minimum thickness: minus centre 2.0 mm (CR-39) or 1.5 mm (high index), plus edge 1.0 mm (common practice, no source)");
 source!(SPECTACLE_MAGNIFICATION, "S", "spectacle magnification = shape factor × power factor, entrance pupil about 3 mm behind the cornea: Fannin & Grosvenor, Clinical Optics");
 source!(ANISEIKONIA, "CP", "aniseikonia estimated as the ratio of the two spectacle magnifications; about 1% per dioptre (common practice)");

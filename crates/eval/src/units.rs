@@ -252,6 +252,33 @@ spec!(
 );
 spec!(DIAMETER, "diameter", Length, None, Millimetre, 0.005, 0.090);
 spec!(
+    BOXED_SIZE,
+    "boxed lens size",
+    Length,
+    None,
+    Millimetre,
+    0.015,
+    0.080
+);
+spec!(
+    DISTANCE_BETWEEN_LENSES,
+    "distance between lenses",
+    Length,
+    None,
+    Millimetre,
+    0.010,
+    0.030
+);
+spec!(
+    EFFECTIVE_DIAMETER,
+    "effective diameter",
+    Length,
+    None,
+    Millimetre,
+    0.020,
+    0.090
+);
+spec!(
     CL_BASE_CURVE,
     "base curve radius",
     Length,

@@ -55,3 +55,24 @@ pub fn residual_astigmatism(refractive: &SphCyl, corneal_cyl: &SphCyl) -> (f64, 
 /// Cylinder below which a spherical rigid lens usually suffices, D (common
 /// practice, no source).
 pub const SPHERICAL_RIGID_BELOW: f64 = 0.75;
+
+/// Largest difference in any meridian between two spherocylinders, D: the
+/// largest absolute eigenvalue of the difference of their power matrices.
+pub fn largest_meridian_difference(a: &SphCyl, b: &SphCyl) -> f64 {
+    let (p, q) = (a.power_matrix(), b.power_matrix());
+    let (x, y, z) = (p[0][0] - q[0][0], p[1][1] - q[1][1], p[0][1] - q[0][1]);
+    let mean = (x + y) / 2.0;
+    let radius = ((x - y) / 2.0).hypot(z);
+    mean.abs() + radius
+}
+
+/// An ordered contact lens power differing from the computed one by this much
+/// or more in some meridian is flagged, D (one 0.25 D step; common practice).
+pub const ORDER_DIFFERS_FROM: f64 = 0.25;
+
+/// Usual total diameters, metres: soft lenses 13.0 to 15.0 mm, rigid corneal
+/// lenses 8.0 to 10.5 mm (common practice, no source; scleral and other special
+/// designs lie outside and are not judged here).
+pub const SOFT_DIAMETER: (f64, f64) = (0.013, 0.015);
+/// See [`SOFT_DIAMETER`].
+pub const RIGID_DIAMETER: (f64, f64) = (0.008, 0.0105);

@@ -118,3 +118,106 @@ pub fn spectacle_magnification(
 pub fn entrance_pupil_distance(vertex_m: f64) -> f64 {
     vertex_m + 0.003
 }
+
+/// A spectacle lens material of the common-practice table [`MATERIALS`].
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Material {
+    /// The name the table shows.
+    pub name: &'static str,
+    /// Spellings accepted, lower case, letters, digits and `.` only.
+    pub spellings: &'static [&'static str],
+    /// Refractive index (helium d line), as catalogues quote it.
+    pub index: f64,
+    /// Usual minimum centre thickness of a minus lens, metres.
+    pub min_centre: f64,
+    /// Usual minimum edge thickness of a plus lens, metres.
+    pub min_edge: f64,
+}
+
+/// Common spectacle lens materials: indices as lens catalogues quote them and the
+/// minimum thicknesses laboratories usually work to (common practice, no single
+/// source; CR-39 2.0 mm and polycarbonate 1.0 mm minus centres are the figures
+/// usually quoted for impact resistance, crown glass 2.2 mm for a tempered lens).
+pub const MATERIALS: &[Material] = &[
+    Material {
+        name: "CR-39",
+        spellings: &["cr39", "cr-39", "adc"],
+        index: 1.498,
+        min_centre: 0.002,
+        min_edge: 0.001,
+    },
+    Material {
+        name: "crown glass",
+        spellings: &["crownglass", "crown", "glass"],
+        index: 1.523,
+        min_centre: 0.0022,
+        min_edge: 0.001,
+    },
+    Material {
+        name: "polycarbonate",
+        spellings: &["polycarbonate", "pc"],
+        index: 1.586,
+        min_centre: 0.001,
+        min_edge: 0.001,
+    },
+    Material {
+        name: "1.60 plastic",
+        spellings: &["1.60", "1.6", "1.60plastic", "1.6plastic"],
+        index: 1.6,
+        min_centre: 0.0015,
+        min_edge: 0.001,
+    },
+    Material {
+        name: "1.67 plastic",
+        spellings: &["1.67", "1.67plastic"],
+        index: 1.67,
+        min_centre: 0.0015,
+        min_edge: 0.001,
+    },
+    Material {
+        name: "1.74 plastic",
+        spellings: &["1.74", "1.74plastic"],
+        index: 1.74,
+        min_centre: 0.0015,
+        min_edge: 0.001,
+    },
+];
+
+/// The material of [`MATERIALS`] that `name` spells (case, spaces and `-` ignored).
+pub fn material(name: &str) -> Option<&'static Material> {
+    let key: String = name
+        .chars()
+        .filter(|c| c.is_alphanumeric() || *c == '.')
+        .flat_map(char::to_lowercase)
+        .collect();
+    MATERIALS
+        .iter()
+        .find(|m| m.spellings.iter().any(|s| s.replace('-', "") == key))
+}
+
+/// Decentration of a lens's optical centre from the boxed centre of its frame
+/// shape, metres: horizontally `(A + DBL − centre distance)/2` (inward positive)
+/// and vertically `OC height − B/2`; the total is their vector sum.
+pub fn decentration(
+    boxed_width_m: f64,
+    distance_between_lenses_m: f64,
+    centre_distance_m: f64,
+    vertical_m: f64,
+) -> f64 {
+    ((boxed_width_m + distance_between_lenses_m - centre_distance_m) / 2.0).hypot(vertical_m)
+}
+
+/// Minimum blank size for an edged lens: effective diameter plus twice the
+/// decentration (`MBS = ED + 2·dec`; common practice, no source; laboratories
+/// often add about 2 mm for edging). Metres.
+pub fn minimum_blank(effective_diameter_m: f64, decentration_m: f64) -> f64 {
+    effective_diameter_m + 2.0 * decentration_m
+}
+
+/// Distance from the optical centre to the farthest point of the edged lens,
+/// at most half the effective diameter plus the decentration (the bound is
+/// reached when the farthest point of the shape lies in the direction of the
+/// decentration). Metres.
+pub fn farthest_point(effective_diameter_m: f64, decentration_m: f64) -> f64 {
+    effective_diameter_m / 2.0 + decentration_m
+}

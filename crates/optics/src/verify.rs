@@ -141,3 +141,27 @@ pub fn verify(ordered: &SphCyl, measured: &SphCyl) -> Verification {
         axis,
     }
 }
+
+/// ANSI Z80.1-2015: the mounted-pair vertical imbalance tolerance applies to
+/// lenses of up to this power in the vertical meridian, D.
+pub const VERTICAL_IMBALANCE_UP_TO: f64 = 3.375;
+/// ANSI Z80.1-2015: the mounted-pair horizontal imbalance tolerance applies to
+/// lenses of up to this power in the horizontal meridian, D.
+pub const HORIZONTAL_IMBALANCE_UP_TO: f64 = 2.75;
+/// ANSI Z80.1-2015: above [`HORIZONTAL_IMBALANCE_UP_TO`] the distance between the
+/// optical centres may differ from the ordered pupillary distance by this much,
+/// metres (quoted from memory, to be confirmed).
+pub const CENTRE_DISTANCE_TOLERANCE: f64 = 0.0025;
+
+/// The mounted-pair imbalance tolerance for one direction: `Some(tolerance Δ)`
+/// when the stronger of the two lenses' powers in that meridian is within the
+/// band the prism tolerance applies to, `None` above it.
+pub fn mounted_imbalance_tolerance(vertical: bool, meridian_powers: [f64; 2]) -> Option<f64> {
+    let p = meridian_powers[0].abs().max(meridian_powers[1].abs());
+    let (up_to, tol) = if vertical {
+        (VERTICAL_IMBALANCE_UP_TO, VERTICAL_IMBALANCE_TOLERANCE)
+    } else {
+        (HORIZONTAL_IMBALANCE_UP_TO, HORIZONTAL_IMBALANCE_TOLERANCE)
+    };
+    (p <= up_to + 1e-9).then_some(tol)
+}
