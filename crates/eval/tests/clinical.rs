@@ -343,3 +343,198 @@ fn add_and_prism_verification() {
     );
     assert!(codes(&ev).contains(&"P0605"));
 }
+
+fn text<'a>(ev: &'a Evaluation, key: &str) -> &'a str {
+    match get(ev, key) {
+        V::Text { text } => text,
+        other => panic!("{key} is {other:?}"),
+    }
+}
+
+const MINUS_EDGED: &str = "eye right\n  pd 32 mm\nframe\n  pantoscopic-tilt 10 deg\n  centre-distance 64 mm\n  boxed-lens-size 52 mm x 38 mm\n  distance-between-lenses 18 mm\n  effective-diameter 56 mm\n  fitting-height 22 mm\nspectacle-lens right\n  power -5.50 / -0.75 x 180\n  index 1.6\n  base-curve +2.00\n  centre-thickness 1.5 mm\n  blank-diameter 60 mm\n";
+
+#[test]
+fn decentration_minimum_blank_and_edge_at_the_farthest_point() {
+    let ev = eval(MINUS_EDGED);
+    // [C] decentration: horizontal (52 + 18)/2 − 64/2 = 3 mm; vertical OC height
+    // (22 − 0.5 × 10) − 38/2 = −2 mm; total √13 = 3.6056 mm; tol 1e-7 m.
+    close(
+        num(&ev, "frame.oc-height"),
+        0.017,
+        1e-9, // [CP] 0.5 mm per degree of tilt: 22 − 5 = 17 mm; tol 1e-9 m
+    );
+    close(
+        num(&ev, "spectacle-lens.right.decentration"),
+        13f64.sqrt() / 1000.0,
+        1e-7,
+    );
+    // [CP] minimum blank size = ED + 2 × decentration = 56 + 7.2111 = 63.2111 mm; tol 1e-7 m
+    close(
+        num(&ev, "spectacle-lens.right.minimum-blank"),
+        0.0632111,
+        1e-7,
+    );
+    // [C] exact sags (Loomis) at y = 28 + 3.6056 mm, strongest meridian −6.25 D,
+    // F1 +2, n 1.6, t 1.5 mm: F2 = −8.253757, edge 7.060703 mm (computed
+    // independently in Python from the published formulas); tol 1e-6 m
+    close(
+        num(&ev, "spectacle-lens.right.edged-thickness-edge"),
+        0.007060703,
+        1e-6,
+    );
+    close(
+        num(&ev, "spectacle-lens.right.edged-thickness-centre"),
+        0.0015,
+        1e-9,
+    );
+    // the 60 mm blank is below the 63.2 mm minimum blank size
+    assert!(codes(&ev).contains(&"P0611"), "{:?}", codes(&ev));
+    let big = eval(&MINUS_EDGED.replace("blank-diameter 60 mm", "blank-diameter 65 mm"));
+    assert!(!codes(&big).contains(&"P0611"));
+}
+
+#[test]
+fn plus_lens_edged_from_the_material_table() {
+    let ev = eval("eye right\n  pd 32 mm\nframe\n  centre-distance 64 mm\n  boxed-lens-size 50 mm x 36 mm\n  distance-between-lenses 18 mm\n  effective-diameter 54 mm\nspectacle-lens right\n  power +4.00\n  material \"CR-39\"\n  base-curve +8.00\n");
+    // [CP] minimum blank 54 + 2 × 2 = 58 mm; tol 1e-9 m
+    close(num(&ev, "spectacle-lens.right.minimum-blank"), 0.058, 1e-9);
+    // [C] CR-39 n 1.498 from the material table [CP], plus edge 1.0 mm at y = 29 mm:
+    // centre 4.566624 mm by bisection on the exact sag formula (Python, independent
+    // of the crate's fixed-point iteration); tol 1e-6 m
+    close(
+        num(&ev, "spectacle-lens.right.edged-thickness-centre"),
+        0.004566624,
+        1e-6,
+    );
+    close(
+        num(&ev, "spectacle-lens.right.edged-thickness-edge"),
+        0.001,
+        1e-6,
+    );
+    // no centre-distance: the optical centres sit at the pupils (PD 32 → 2 mm as above)
+    let at_pupils = eval("eye right\n  pd 32 mm\nframe\n  boxed-lens-size 50 mm x 36 mm\n  distance-between-lenses 18 mm\n  effective-diameter 54 mm\nspectacle-lens right\n  power +4.00\n  material \"CR-39\"\n  base-curve +8.00\n");
+    close(
+        num(&at_pupils, "spectacle-lens.right.decentration"),
+        0.002,
+        1e-9,
+    );
+    // without an effective diameter the box diagonal √(50² + 36²) = 61.6117 mm is used [C]; tol 1e-7 m
+    let no_ed = eval("eye right\n  pd 32 mm\nframe\n  boxed-lens-size 50 mm x 36 mm\n  distance-between-lenses 18 mm\nspectacle-lens right\n  power +4.00\n  index 1.5\n  base-curve +8.00\n");
+    close(
+        num(&no_ed, "spectacle-lens.right.minimum-blank"),
+        (50f64.hypot(36.0) + 4.0) / 1000.0,
+        1e-7,
+    );
+}
+
+#[test]
+fn material_gives_index_and_minimum_thickness() {
+    // [CP] material table: polycarbonate n 1.586, minus centre 1.0 mm
+    let ev = eval("spectacle-lens right\n  power -3.00\n  material \"Polycarbonate\"\n  base-curve +3.00\n  blank-diameter 60 mm\n");
+    close(
+        num(&ev, "spectacle-lens.right.thickness-centre"),
+        0.001,
+        1e-12,
+    );
+    // [C] exact sags, n 1.586, F1 +3, t 1 mm, y 30 mm: F2 = −3 − 3/(1 − 0.001/1.586·3)
+    let n = 1.586_f64;
+    let f2 = -3.0 - 3.0 / (1.0 - 0.001 / n * 3.0);
+    let (r1, r2, y) = ((n - 1.0) / 3.0, (1.0 - n) / f2, 0.03_f64);
+    let sag = |r: f64| r - (r * r - y * y).sqrt();
+    close(
+        num(&ev, "spectacle-lens.right.thickness-edge"),
+        0.001 + sag(r2) - sag(r1),
+        1e-9,
+    );
+    assert!(!codes(&ev).contains(&"P0612"));
+    // a name the table does not know, and an index that contradicts the name
+    let unknown = eval("spectacle-lens right\n  power -3.00\n  material \"unobtainium\"\n");
+    assert!(codes(&unknown).contains(&"P0612"));
+    let clash = eval("spectacle-lens right\n  power -3.00\n  material \"1.67\"\n  index 1.5\n");
+    assert!(codes(&clash).contains(&"P0612"));
+}
+
+fn pair(cd_mm: f64, right: &str, left: &str, extra_right: &str) -> Evaluation {
+    eval(&format!(
+        "eye right\n  pd 32 mm\neye left\n  pd 32 mm\nframe\n  centre-distance {cd_mm} mm\nspectacle-lens right\n  power {right}\n  measured {right}\n{extra_right}spectacle-lens left\n  power {left}\n  measured {left}\n"
+    ))
+}
+
+#[test]
+fn mounted_pair_horizontal_imbalance_ansi_z80_1_2015() {
+    // [C] Prentice P = c·F: −2.00 D lenses, centres 1 mm outside each pupil
+    // (CD 66, PD 32 + 32) → 0.2Δ BI each, 0.4Δ net; [S] ANSI Z80.1-2015 mounted
+    // pair horizontal ≤ 0.67Δ up to 2.75 D → pass; tol 1e-9 Δ
+    let ev = pair(66.0, "-2.00", "-2.00", "");
+    close(num(&ev, "frame.mounted-horizontal-imbalance"), 0.4, 1e-9);
+    assert_eq!(text(&ev, "frame.check-mounted-horizontal"), "pass");
+    assert_eq!(text(&ev, "frame.check-mounted-vertical"), "pass");
+    // 2 mm each → 0.8Δ BI > 0.67Δ → fail, with its diagnostic
+    let ev = pair(68.0, "-2.00", "-2.00", "");
+    close(num(&ev, "frame.mounted-horizontal-imbalance"), 0.8, 1e-9);
+    assert_eq!(text(&ev, "frame.check-mounted-horizontal"), "fail");
+    assert!(codes(&ev).contains(&"P0613"));
+    // above 2.75 D the centre distance is held to ±2.5 mm of the PDs instead [M]
+    let strong = pair(66.0, "-4.00", "-4.00", "");
+    assert_eq!(text(&strong, "frame.check-mounted-horizontal"), "pass");
+    let strong = pair(67.0, "-4.00", "-4.00", "");
+    assert_eq!(text(&strong, "frame.check-mounted-horizontal"), "fail");
+}
+
+#[test]
+fn mounted_pair_vertical_imbalance_ansi_z80_1_2015() {
+    // [S] ANSI Z80.1-2015: vertical imbalance ≤ 0.33Δ up to 3.375 D. Centres at
+    // the pupils; unwanted 0.25Δ BU measured on the right → pass; 0.50Δ → fail.
+    let ev = pair(64.0, "-1.00", "-1.00", "  measured-prism 0.25Δ BU\n");
+    close(num(&ev, "frame.mounted-vertical-imbalance"), 0.25, 1e-9);
+    assert_eq!(text(&ev, "frame.check-mounted-vertical"), "pass");
+    let ev = pair(64.0, "-1.00", "-1.00", "  measured-prism 0.5Δ BU\n");
+    assert_eq!(text(&ev, "frame.check-mounted-vertical"), "fail");
+    assert!(codes(&ev).contains(&"P0613"));
+    // prism ordered is not unwanted
+    let ev = pair(
+        64.0,
+        "-1.00",
+        "-1.00",
+        "  prism 0.5Δ BU\n  measured-prism 0.5Δ BU\n",
+    );
+    close(num(&ev, "frame.mounted-vertical-imbalance"), 0.0, 1e-9);
+    // [C] oblique cylinder, 3 mm decentration: −1.00 / −1.00 x 45 has F_xy = +0.5 D,
+    // so 0.15Δ vertical in each lens, opposite bases → 0.30Δ imbalance; tol 1e-9 Δ
+    let ev = pair(70.0, "-1.00 / -1.00 x 45", "-1.00 / -1.00 x 45", "");
+    close(num(&ev, "frame.mounted-vertical-imbalance"), 0.30, 1e-9);
+    // above 3.375 D in the vertical meridian the prism band does not apply
+    let ev = pair(64.0, "-4.00", "-4.00", "");
+    assert_eq!(text(&ev, "frame.check-mounted-vertical"), "not applicable");
+}
+
+#[test]
+fn contact_lens_ordered_power_and_diameter() {
+    let base = "eye right\n  refraction -5.00 @ 12 mm\ncontact-lens right\n  kind soft\n";
+    // [C] F_c = F/(1 − dF) = −5/(1 + 0.06) = −4.716981 D; ordered −4.75 → 0.033 D; tol 1e-6 D
+    let ev = eval(&format!("{base}  power -4.75\n  diameter 14.2 mm\n"));
+    close(
+        num(&ev, "contact-lens.right.power-difference"),
+        4.75 - 5.0 / 1.06,
+        1e-6,
+    );
+    assert!(!codes(&ev).contains(&"P0614"));
+    assert!(!codes(&ev).contains(&"P0615"));
+    // ordered at the spectacle power: 0.28 D off → flagged [CP one 0.25 D step]
+    let ev = eval(&format!("{base}  power -5.00\n"));
+    assert!(codes(&ev).contains(&"P0614"));
+    // [CP] 9.6 mm is a rigid corneal size, not a soft one
+    let ev = eval(&format!("{base}  diameter 9.6 mm\n"));
+    assert!(codes(&ev).contains(&"P0615"));
+    // [C] toric order against the corneal plane: −2.00 / −2.00 x 90 at 12 mm →
+    // meridians −2/(1+0.024) and −4/(1+0.048); ordered −2.00 / −1.75 x 90 differs
+    // most in the 180 meridian: |−3.75 + 3.816794| = 0.066794 D; tol 1e-6 D
+    let ev = eval("eye right\n  refraction -2.00 / -2.00 x 90 @ 12 mm\ncontact-lens right\n  kind soft\n  power -2.00 / -1.75 x 90\n");
+    close(
+        num(&ev, "contact-lens.right.power-difference"),
+        (-3.75_f64 + 4.0 / 1.048)
+            .abs()
+            .max((-2.0_f64 + 2.0 / 1.024).abs()),
+        1e-6,
+    );
+}
