@@ -64,6 +64,14 @@ impl Tilt {
 /// cylinders it follows the power-matrix treatment of tilted thin lenses (Harris,
 /// Optom Vis Sci 2002; Keating, Optom Vis Sci 1995), provenance [M] until the
 /// exact published form is confirmed.
+///
+/// Cross-checked (tests/tilt_crosscheck.rs) against Coddington's equations applied
+/// surface by surface: for a tilt about one axis the matrix structure is the same
+/// and only the obliquity factor differs (Martin's `1 + sin²a/2n` against the exact
+/// `(n cos a' − cos a)/(n − 1)`), by O(sin⁴ a): under 0.005 D to 10° for 15 D.
+/// With both pantoscopic tilt and face form the symmetric stretch omits an
+/// oblique (off-diagonal) term of order `sin p · sin f`: about 0.1 D for a 5.50 D
+/// lens at 10° and 5°.
 pub fn as_worn(lens: &SphCyl, tilt: Tilt, index: f64) -> SphCyl {
     let (qx, qy) = tilt.stretch();
     let k = 1.0 + tilt.obliquity_deg().to_radians().sin().powi(2) / (2.0 * index);
