@@ -4,9 +4,10 @@
 //!
 //! Run: `cargo bench -p parax-cli --bench check_vs_cat`. The corpus is written to a
 //! fresh folder under the system temp folder and removed afterwards (set
-//! `PARAX_BENCH_KEEP=1` to keep it). Each command is run once to warm the page
-//! cache, then 5 times, interleaved; the table shows medians. "cores busy" is the
-//! child's CPU time (user + system, from /proc/self/stat) over wall time.
+//! `PARAX_BENCH_KEEP=1` to keep it, and to get the 5 MB file beside it). Each
+//! command is run once to warm the page cache, then 5 times, interleaved; the
+//! table shows medians. "cores busy" is the child's CPU time (user + system,
+//! from /proc/self/stat) over wall time.
 
 #[path = "../../eval/benches/corpus/mod.rs"]
 mod corpus;
@@ -17,11 +18,11 @@ use std::time::{Duration, Instant};
 
 const RUNS: usize = 5;
 
-/// The `parax` binary of this build. Cargo builds the package's binaries for its
-/// benchmarks (with the same `bench` profile) and names the path here.
 /// Builds the command to time, once per run.
 type CommandMaker<'a> = Box<dyn Fn() -> Command + 'a>;
 
+/// The `parax` binary of this build. Cargo builds the package's binaries for its
+/// benchmarks (with the same `bench` profile) and names the path here.
 fn parax_binary() -> PathBuf {
     let p = PathBuf::from(env!("CARGO_BIN_EXE_parax"));
     assert!(
@@ -208,6 +209,14 @@ fn main() {
     if std::env::var_os("PARAX_BENCH_KEEP").is_none() {
         let _ = std::fs::remove_dir_all(&dir);
     } else {
-        println!("kept the corpus in {}", dir.display());
+        // Also the 5 MB file of the eval benchmarks, beside (not in) the corpus.
+        let big = dir.with_extension("long-history.parax");
+        std::fs::write(&big, corpus::big_file(corpus::BIG_FILE_BYTES))
+            .expect("write the 5 MB file");
+        println!(
+            "kept the corpus in {} and the 5 MB file as {}",
+            dir.display(),
+            big.display()
+        );
     }
 }

@@ -76,50 +76,46 @@ fn mib(b: usize) -> f64 {
     b as f64 / (1024.0 * 1024.0)
 }
 
-fn main() {
-    if std::env::args().any(|a| a == "--list") {
-        return;
-    }
-    let big = corpus::big_file(corpus::BIG_FILE_BYTES);
-    corpus::assert_sample_clean(&[], 1, Some(&big));
-    let n = big.len();
-    let json = serde_json::to_string(&parax_eval::evaluate_source(&big).1.case)
+/// Peak and held heap of each step on one file, as rows of the table.
+fn table(text: &str, label: &str) {
+    let n = text.len();
+    let json = serde_json::to_string(&parax_eval::evaluate_source(text).1.case)
         .expect("a case serializes");
-
-    println!("peak heap, 5 MB file: {n} bytes of parax text ({:.2} MiB); JSON of the same facts {} bytes", mib(n), json.len());
+    println!(
+        "\n{label}: {n} bytes of parax text ({:.2} MiB); JSON of the same facts {} bytes",
+        mib(n),
+        json.len()
+    );
     println!("(heap above the input string, which the caller holds; 'held' = still allocated by the result)");
     println!(
-        "{:<44} {:>10} {:>8} {:>10} {:>8}",
-        "step", "peak MiB", "× input", "held MiB", "× input"
+        "{:<50} {:>9} {:>8} {:>9} {:>8}",
+        "step", "peak MiB", "× text", "held MiB", "× text"
     );
-    let row = |name: &str, peak: usize, held: usize, input: usize| {
+    let row = |name: &str, peak: usize, held: usize| {
         println!(
-            "{name:<44} {:>10.2} {:>7.2}× {:>10.2} {:>7.2}×",
+            "{name:<50} {:>9.2} {:>7.2}× {:>9.2} {:>7.2}×",
             mib(peak),
-            peak as f64 / input as f64,
+            peak as f64 / n as f64,
             mib(held),
-            held as f64 / input as f64
+            held as f64 / n as f64
         );
     };
-
-    let (peak, held, parsed) = measure(|| parax_syntax::parse(&big));
-    row("parax parse", peak, held, n);
+    let (peak, held, parsed) = measure(|| parax_syntax::parse(text));
+    row("parax parse", peak, held);
     drop(parsed);
-    let (peak, held, both) = measure(|| parax_eval::evaluate_source(&big));
+    let (peak, held, both) = measure(|| parax_eval::evaluate_source(text));
     row(
         "parax parse + evaluate (text → model + derived)",
         peak,
         held,
-        n,
     );
-    let (_, ev) = both;
-    let derived = ev.derived.len();
-    drop(ev);
+    let derived = both.1.derived.len();
+    drop(both);
     let (peak, held, case) =
         measure(|| serde_json::from_str::<parax_eval::Case>(&json).expect("valid JSON"));
-    row("serde_json deserialize (vs parax text size)", peak, held, n);
+    row("serde_json deserialize (JSON → model)", peak, held);
     let (peak, held, out) = measure(|| parax_eval::evaluate_case(&case));
-    row("evaluate_case on that model (compute only)", peak, held, n);
+    row("evaluate_case on that model (compute alone)", peak, held);
     assert_eq!(
         out.0.len(),
         derived,
@@ -129,11 +125,56 @@ fn main() {
     drop(case);
     let (peak, held, out) = measure(|| {
         let case = serde_json::from_str::<parax_eval::Case>(&json).expect("valid JSON");
-        parax_eval::evaluate_case(&case);
+        drop(parax_eval::evaluate_case(&case));
         case
     });
-    row("serde_json deserialize + evaluate_case", peak, held, n);
+    row("serde_json deserialize + evaluate_case", peak, held);
     drop(out);
+}
+
+fn main() {
+    if std::env::args().any(|a| a == "--list" || a == "--test") {
+        return;
+    }
+    let big = corpus::big_file(corpus::BIG_FILE_BYTES);
+    let (peak, held, parsed) = measure(|| parax_syntax::parse(&big));
+    drop(parsed);
+    println!(
+        "5 MB file ({} bytes): parax parse alone peaks at {:.2} MiB = {:.2}× the input (holds {:.2}×)",
+        big.len(),
+        mib(peak),
+        peak as f64 / big.len() as f64,
+        held as f64 / big.len() as f64
+    );
+
+    // Evaluation of one large file may grow faster than linearly; measure at the
+    // full 5 MB only when that is affordable (or PARAX_BENCH_FULL=1 asks for it).
+    let scaling = corpus::scaling_probe(2.0);
+    scaling.print();
+    if corpus::full_requested() || scaling.predicted <= 60.0 {
+        corpus::assert_sample_clean(&[], 1, Some(&big));
+        table(&big, "5 MB file");
+    } else {
+        let &(bytes, _) = scaling
+            .points
+            .iter()
+            .rev()
+            .find(|p| p.1 <= 10.0)
+            .unwrap_or(&scaling.points[0]);
+        println!(
+            "\nNOT measured at 5 MB: one evaluation is predicted to take {:.0} s (set PARAX_BENCH_FULL=1 to run it).\n\
+             Peak multiples below are for the largest affordable size; they hardly depend on size (see the smaller one).",
+            scaling.predicted
+        );
+        for b in [bytes / 4, bytes] {
+            let text = corpus::big_file(b);
+            corpus::assert_sample_clean(&[], 1, Some(&text));
+            table(
+                &text,
+                &format!("prefix of the 5 MB file, {:.2} MB", text.len() as f64 / 1e6),
+            );
+        }
+    }
 
     // The 10,000-file corpus, one file at a time as `parax check` does per thread.
     let files = corpus::corpus(corpus::CORPUS_FILES);
@@ -148,7 +189,5 @@ fn main() {
             worst_peak = peak;
         }
     }
-    println!(
-        "10,000-file corpus, one file at a time: worst peak {worst_peak} bytes = {worst:.2}× that file's size"
-    );
+    println!("\n10,000-file corpus, one file at a time: worst peak {worst_peak} bytes = {worst:.2}× that file's size");
 }

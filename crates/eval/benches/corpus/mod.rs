@@ -134,14 +134,12 @@ fn norm_axis(a: i64) -> i64 {
 }
 
 /// One `eye` block. `dated` gives the header a visit date (the large file repeats eyes).
-fn eye_block(rng: &mut Rng, out: &mut String, side: &str, visit: Option<&str>, vertex_mm: i64) {
-    use std::fmt::Write;
-    match visit {
-        Some(d) => writeln!(out, "eye {side} {d}").unwrap(),
-        None => writeln!(out, "eye {side}").unwrap(),
-    }
-    // Most refractions are mild; about one in six is strong enough (over 4 D in a
-    // meridian) that parax adds a note on the corneal-plane power, as it should.
+/// A refraction: sphere, cylinder (minus form, 0 for none), axis.
+type Rx = (f64, f64, i64);
+
+/// A refraction as most are: mild, and about one in six strong enough (over 4 D
+/// in a meridian) that parax adds a note on the corneal-plane power.
+fn draw_rx(rng: &mut Rng) -> Rx {
     let s = if rng.chance(0.15) {
         rng.steps(-10.0, 6.0, 0.25)
     } else {
@@ -150,9 +148,42 @@ fn eye_block(rng: &mut Rng, out: &mut String, side: &str, visit: Option<&str>, v
     let c = if rng.chance(0.2) {
         0.0
     } else {
-        rng.steps(-3.0, -0.25, 0.25)
+        rng.steps(-2.0, -0.25, 0.25)
     };
-    let a = rng.int(1, 180);
+    (s, c, rng.int(1, 180))
+}
+
+/// The fellow eye of `rx`: the two eyes of one person are alike (within 0.75 D,
+/// mirrored axes), with a real anisometropia now and then.
+fn fellow_rx(rng: &mut Rng, (fs, fc, fa): Rx) -> Rx {
+    let ds = if rng.chance(0.03) {
+        rng.steps(-3.0, 3.0, 0.25)
+    } else {
+        rng.steps(-0.75, 0.75, 0.25)
+    };
+    let c = if fc == 0.0 {
+        0.0
+    } else {
+        (fc + rng.steps(-0.25, 0.25, 0.25)).min(-0.25)
+    };
+    (fs + ds, c, norm_axis(180 - fa + rng.int(-5, 5)))
+}
+
+/// One `eye` block with refraction `rx`; `visit` gives the header a date (the
+/// large file repeats eyes).
+fn eye_block(
+    rng: &mut Rng,
+    out: &mut String,
+    side: &str,
+    visit: Option<&str>,
+    vertex_mm: i64,
+    (s, c, a): Rx,
+) {
+    use std::fmt::Write;
+    match visit {
+        Some(d) => writeln!(out, "eye {side} {d}").unwrap(),
+        None => writeln!(out, "eye {side}").unwrap(),
+    }
     let comment = if rng.chance(0.4) {
         format!("  # {}", rng.pick(COMMENTS))
     } else {
@@ -357,8 +388,10 @@ pub fn case_file(i: usize) -> String {
     out.push('\n');
     // Same vertex for the refraction and the frame (no frame-vertex notes).
     let vertex = rng.int(10, 14);
-    eye_block(&mut rng, &mut out, "right", None, vertex);
-    eye_block(&mut rng, &mut out, "left", None, vertex);
+    let right = draw_rx(&mut rng);
+    let left = fellow_rx(&mut rng, right);
+    eye_block(&mut rng, &mut out, "right", None, vertex, right);
+    eye_block(&mut rng, &mut out, "left", None, vertex, left);
     let frame = rng.pick(FRAMES);
     frame_block(&mut rng, &mut out, frame, vertex);
     system_block(&mut rng, &mut out, &format!("bench relay {i}"));
@@ -373,28 +406,44 @@ pub fn corpus(n: usize) -> Vec<String> {
 /// One file of at least `bytes` bytes: a `case` block, then dated eye visits,
 /// frames and systems, each with a unique name or date.
 pub fn big_file(bytes: usize) -> String {
+    big_file_parts(bytes).concat()
+}
+
+/// [`big_file`] in the pieces it is made of: the `case` block, then one piece per
+/// visit (two dated eyes, a frame, a system). Each piece is a valid file by itself.
+pub fn big_file_parts(bytes: usize) -> Vec<String> {
     use std::fmt::Write;
     let mut rng = Rng::new(SEED ^ 0xB16);
-    let mut out = String::with_capacity(bytes + 4096);
+    let mut head = String::new();
     writeln!(
-        out,
+        head,
         "# Invented benchmark file: one long case history, generated; no real person."
     )
     .unwrap();
-    writeln!(out, "case \"Bench clinic: long history\"").unwrap();
-    writeln!(out, "  age 52 y").unwrap();
-    writeln!(out, "  tag long-history\n").unwrap();
+    writeln!(head, "case \"Bench clinic: long history\"").unwrap();
+    writeln!(head, "  age 52 y").unwrap();
+    writeln!(head, "  tag long-history\n").unwrap();
+    let mut total = head.len();
+    let mut parts = vec![head];
     let vertex = 12;
+    // Visits a fortnight apart (the dates run on for two centuries: the file is
+    // a stress test, not a life), of a patient whose refraction is stable: parax
+    // notes any change between two close visits as fast progression.
+    let right = draw_rx(&mut rng);
+    let left = fellow_rx(&mut rng, right);
     let mut i = 0u64;
-    while out.len() < bytes {
-        let visit = date(i);
-        eye_block(&mut rng, &mut out, "right", Some(&visit), vertex);
-        eye_block(&mut rng, &mut out, "left", Some(&visit), vertex);
+    while total < bytes {
+        let mut out = String::with_capacity(1500);
+        let visit = date(i * 14);
+        eye_block(&mut rng, &mut out, "right", Some(&visit), vertex, right);
+        eye_block(&mut rng, &mut out, "left", Some(&visit), vertex, left);
         frame_block(&mut rng, &mut out, &format!("frame {i}"), vertex);
         system_block(&mut rng, &mut out, &format!("bench relay {i}"));
+        total += out.len();
+        parts.push(out);
         i += 1;
     }
-    out
+    parts
 }
 
 /// Panic unless `source` evaluates without error diagnostics. Returns the number
@@ -427,4 +476,71 @@ pub fn assert_sample_clean(files: &[String], step: usize, big: Option<&str>) {
     if other > 0 {
         eprintln!("note: the checked sample has {other} warning(s)/note(s) and no errors");
     }
+}
+
+/// How the time of one `evaluate_source` grows with the size of one file.
+pub struct Scaling {
+    /// (bytes, seconds) per measured size, doubling.
+    pub points: Vec<(usize, f64)>,
+    /// Growth exponent between the last two sizes (1 = linear, 2 = quadratic).
+    pub exponent: f64,
+    /// Predicted seconds for one evaluation of `BIG_FILE_BYTES`.
+    pub predicted: f64,
+}
+
+/// Time `evaluate_source` on generated files of 1/64, 1/32, … of `BIG_FILE_BYTES`,
+/// doubling until the full size or until one run takes over `stop_s` seconds.
+pub fn scaling_probe(stop_s: f64) -> Scaling {
+    let mut points = Vec::new();
+    let mut size = BIG_FILE_BYTES / 64;
+    loop {
+        let text = big_file(size);
+        let start = std::time::Instant::now();
+        std::hint::black_box(parax_eval::evaluate_source(&text));
+        let t = start.elapsed().as_secs_f64();
+        points.push((text.len(), t));
+        if size >= BIG_FILE_BYTES || t > stop_s {
+            break;
+        }
+        size = (size * 2).min(BIG_FILE_BYTES);
+    }
+    let (b1, t1) = points[points.len().saturating_sub(2)];
+    let (b2, t2) = points[points.len() - 1];
+    let exponent = if b2 > b1 {
+        (t2 / t1).ln() / (b2 as f64 / b1 as f64).ln()
+    } else {
+        1.0
+    };
+    let predicted = t2 * (BIG_FILE_BYTES as f64 / b2 as f64).powf(exponent.max(1.0));
+    Scaling {
+        points,
+        exponent,
+        predicted,
+    }
+}
+
+impl Scaling {
+    /// Print the probe as a small table.
+    pub fn print(&self) {
+        println!("one parse+evaluate of a generated file, by size (is it linear?):");
+        for (b, t) in &self.points {
+            println!(
+                "  {:>9} bytes  {:>9.3} s  {:>8.2} MB/s",
+                b,
+                t,
+                *b as f64 / 1e6 / t
+            );
+        }
+        println!(
+            "  growth exponent {:.2} (1 = linear); predicted for {:.1} MB: {:.1} s",
+            self.exponent,
+            BIG_FILE_BYTES as f64 / 1e6,
+            self.predicted
+        );
+    }
+}
+
+/// True when the slow steps should run at full size whatever the prediction.
+pub fn full_requested() -> bool {
+    std::env::var_os("PARAX_BENCH_FULL").is_some()
 }
