@@ -2,11 +2,11 @@
 //! plane, a soft-lens suggestion (spherical equivalent or toric), and for a rigid
 //! lens the tear lens, the lens power and the residual astigmatism.
 
-use super::{current_eye, n4, sphcyl, Out};
+use super::{current_eye, n4, sphcyl, Ctx, Out};
 use crate::codes;
 use crate::derived::DerivedValue as V;
 use crate::diagnostic::{Diagnostic, Severity};
-use crate::model::{Case, ContactLens};
+use crate::model::ContactLens;
 use crate::sources as src;
 use parax_optics::contact;
 use parax_optics::keratometry::{keratometric_power, KERATOMETRIC_INDEX};
@@ -103,7 +103,7 @@ fn ordered_power(
 }
 
 pub(super) fn compute(
-    case: &Case,
+    case: &Ctx<'_>,
     c: &ContactLens,
     out: &mut Out<'_>,
     diags: &mut Vec<Diagnostic>,

@@ -4,11 +4,11 @@
 //! magnification, verification of a received lens against ANSI Z80.1-2015, and
 //! for the frame the optical-centre drop, prism imbalance and aniseikonia.
 
-use super::{current_eye, first_frame, n4, sphcyl, Out};
+use super::{current_eye, first_frame, n4, sphcyl, Ctx, Out};
 use crate::codes;
 use crate::derived::DerivedValue as V;
 use crate::diagnostic::{Diagnostic, Severity};
-use crate::model::{At, Case, Frame, Side, SpectacleLens};
+use crate::model::{At, Frame, Side, SpectacleLens};
 use crate::sources as src;
 use parax_optics::lens_form::{self, material_minimums};
 use parax_optics::prism::{self, prentice, Prism};
@@ -69,7 +69,7 @@ fn with_prescribed(mut p: Prism, l: &SpectacleLens) -> Prism {
 
 /// Horizontal offset of the pupil from the optical centre, nasal positive:
 /// half the centre distance minus the monocular PD.
-fn nasal_offset(case: &Case, f: &Frame, l: &SpectacleLens) -> Option<f64> {
+fn nasal_offset(case: &Ctx<'_>, f: &Frame, l: &SpectacleLens) -> Option<f64> {
     let cd = f.centre_distance.as_ref()?.value;
     let pd = current_eye(case, l.side)?.pd.as_ref()?.value;
     Some(cd / 2.0 - pd)
@@ -82,7 +82,7 @@ struct Prisms {
     reading_horizontal: bool,
 }
 
-fn prisms(case: &Case, l: &SpectacleLens) -> Prisms {
+fn prisms(case: &Ctx<'_>, l: &SpectacleLens) -> Prisms {
     let (Some(rx), Some(f)) = (power(l), first_frame(case)) else {
         return Prisms {
             distance: None,
@@ -211,7 +211,7 @@ struct Edged {
     span: parax_syntax::Span,
 }
 
-fn edged(case: &Case, l: &SpectacleLens) -> Option<Edged> {
+fn edged(case: &Ctx<'_>, l: &SpectacleLens) -> Option<Edged> {
     let f = first_frame(case)?;
     let boxed = f.boxed_lens_size.as_ref()?;
     let (a, b) = boxed.value;
@@ -258,7 +258,7 @@ fn oc_height(f: &Frame) -> Option<(f64, f64)> {
     Some((h - drop, drop))
 }
 
-fn magnification(case: &Case, l: &SpectacleLens) -> Option<(f64, String)> {
+fn magnification(case: &Ctx<'_>, l: &SpectacleLens) -> Option<(f64, String)> {
     let f = form(l)?;
     let vertex = first_frame(case)?.vertex.as_ref()?.value;
     let bvp = power(l)?.spherical_equivalent();
@@ -281,7 +281,7 @@ fn magnification(case: &Case, l: &SpectacleLens) -> Option<(f64, String)> {
 }
 
 pub(super) fn compute(
-    case: &Case,
+    case: &Ctx<'_>,
     l: &SpectacleLens,
     out: &mut Out<'_>,
     diags: &mut Vec<Diagnostic>,
@@ -491,7 +491,12 @@ fn material(l: &SpectacleLens, diags: &mut Vec<Diagnostic>) {
 /// Thickness of the lens edged to the frame shape: the semi-aperture is the
 /// distance to the farthest point (ED/2 + decentration); the minimum blank size
 /// is ED + 2 × decentration.
-fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+fn edged_thickness(
+    case: &Ctx<'_>,
+    l: &SpectacleLens,
+    out: &mut Out<'_>,
+    diags: &mut Vec<Diagnostic>,
+) {
     let Some(e) = edged(case, l) else { return };
     let why = format!(
         "horizontal (A + DBL)/2 − centre distance/2 = {} mm, vertical OC height − B/2 = {} mm → {} mm",
@@ -782,7 +787,7 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
 /// Values of the frame: optical-centre drop, prism imbalance between the eyes and
 /// aniseikonia, from the first lens of each side.
 pub(super) fn compute_frame(
-    case: &Case,
+    case: &Ctx<'_>,
     f: &Frame,
     out: &mut Out<'_>,
     diags: &mut Vec<Diagnostic>,
@@ -918,7 +923,7 @@ pub(super) fn compute_frame(
 /// Prism at a pupil that the received lens adds beyond the order: Prentice's rule
 /// with the measured power at the decentration (centre distance / 2 − PD), plus
 /// the measured prism at the reference point minus the prism ordered.
-fn unwanted_prism(case: &Case, f: &Frame, l: &SpectacleLens) -> Option<(Prism, SphCyl)> {
+fn unwanted_prism(case: &Ctx<'_>, f: &Frame, l: &SpectacleLens) -> Option<(Prism, SphCyl)> {
     let m = l.measured.as_ref()?;
     let measured = SphCyl::new(m.value.sphere, m.value.cylinder, m.value.axis);
     let c = nasal_offset(case, f, l)?;
@@ -941,7 +946,7 @@ fn unwanted_prism(case: &Case, f: &Frame, l: &SpectacleLens) -> Option<(Prism, S
 /// (0.67Δ, up to 2.75 D in the horizontal meridian; above it the centre distance
 /// within ±2.5 mm of the PDs [M]).
 fn mounted_pair(
-    case: &Case,
+    case: &Ctx<'_>,
     f: &Frame,
     r: &SpectacleLens,
     l: &SpectacleLens,

@@ -2,11 +2,11 @@
 //! against the other eye of the same visit, and the change of the refraction since
 //! the previous dated visit of the same eye, as power vectors and per year.
 
-use super::{n4, Out};
+use super::{n4, Ctx, Out};
 use crate::codes;
 use crate::derived::DerivedValue as V;
 use crate::diagnostic::{Diagnostic, Severity};
-use crate::model::{Case, Eye, Side};
+use crate::model::{Eye, Side};
 use crate::sources as src;
 use parax_optics::refraction::SphCyl;
 
@@ -18,7 +18,7 @@ fn rx(e: &Eye) -> Option<SphCyl> {
 
 /// Days since 1970-01-01 of a `YYYY-MM-DD` date (Howard Hinnant's days-from-civil
 /// algorithm; a dozen lines of arithmetic do not justify a date crate).
-fn days(date: &str) -> Option<i64> {
+pub(crate) fn days(date: &str) -> Option<i64> {
     let mut it = date.split('-').map(|p| p.parse::<i64>().ok());
     let (y, m, d) = (it.next()??, it.next()??, it.next()??);
     let y = if m <= 2 { y - 1 } else { y };
@@ -30,15 +30,15 @@ fn days(date: &str) -> Option<i64> {
     Some(era * 146097 + doe - 719468)
 }
 
-pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+pub(super) fn compute(case: &Ctx<'_>, e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
     let Some(this) = rx(e) else { return };
     let span = e.refraction.as_ref().map_or(e.span, |r| r.span);
     // Anisometropia: the other eye of the same visit (same date, or both undated).
-    if let Some(other) = case
-        .eyes
-        .iter()
-        .find(|o| o.side != e.side && o.date == e.date && o.refraction.is_some())
-    {
+    let other_side = match e.side {
+        Side::Right => Side::Left,
+        Side::Left => Side::Right,
+    };
+    if let Some(other) = case.by_visit.get(&(other_side, e.date.as_deref())).copied() {
         let o = rx(other).expect("checked");
         let (r, l) = if e.side == Side::Right {
             (this, o)
@@ -96,13 +96,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>, diags: &mut Vec<D
     let Some(now) = e.date.as_deref().and_then(days) else {
         return;
     };
-    let prev = case
-        .eyes
-        .iter()
-        .filter(|o| o.side == e.side && o.refraction.is_some())
-        .filter_map(|o| Some((o.date.as_deref().and_then(days)?, o)))
-        .filter(|(d, _)| *d < now)
-        .max_by_key(|(d, _)| *d);
+    let prev = case.previous_visit(e.side, now);
     let Some((then, before)) = prev else { return };
     let b = rx(before).expect("checked");
     let change = this.power_vector().sub(&b.power_vector());
