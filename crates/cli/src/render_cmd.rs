@@ -17,25 +17,7 @@ use std::path::Path;
 
 /// The diagram of one system, or `None` when it has no lens.
 pub fn system_diagram(s: &System) -> Option<LensDiagram> {
-    let elements: Vec<Element> = s
-        .elements
-        .iter()
-        .map(|e| match &e.value {
-            SystemElement::Lens { power, .. } => Element::ThinLens { power: *power },
-            SystemElement::Surface {
-                radius,
-                index_after,
-                ..
-            } => Element::Surface {
-                radius_m: *radius,
-                index_after: *index_after,
-            },
-            SystemElement::Gap { length, index } => Element::Gap {
-                length_m: *length,
-                index: *index,
-            },
-        })
-        .collect();
+    let elements: Vec<Element> = s.optics_elements();
     // Axial positions: each lens or surface after the sum of the gaps before it.
     // A surface is drawn as a lens mark of its power (n' − n)/r in the running index.
     let mut z = 0.0;

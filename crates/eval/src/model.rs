@@ -386,3 +386,32 @@ pub struct Case {
     #[serde(default)]
     pub model_eyes: Vec<ModelEye>,
 }
+
+impl SystemElement {
+    /// The element as the optics crate traces it.
+    pub fn to_optics(&self) -> parax_optics::system::Element {
+        use parax_optics::system::Element;
+        match self {
+            SystemElement::Lens { power, .. } => Element::ThinLens { power: *power },
+            SystemElement::Surface {
+                radius,
+                index_after,
+                ..
+            } => Element::Surface {
+                radius_m: *radius,
+                index_after: *index_after,
+            },
+            SystemElement::Gap { length, index } => Element::Gap {
+                length_m: *length,
+                index: *index,
+            },
+        }
+    }
+}
+
+impl System {
+    /// Every element as the optics crate traces it, in order.
+    pub fn optics_elements(&self) -> Vec<parax_optics::system::Element> {
+        self.elements.iter().map(|e| e.value.to_optics()).collect()
+    }
+}

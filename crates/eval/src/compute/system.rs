@@ -93,25 +93,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             }
         }
     };
-    let elements: Vec<Element> = s
-        .elements
-        .iter()
-        .map(|e| match &e.value {
-            SystemElement::Lens { power, .. } => Element::ThinLens { power: *power },
-            SystemElement::Surface {
-                radius,
-                index_after,
-                ..
-            } => Element::Surface {
-                radius_m: *radius,
-                index_after: *index_after,
-            },
-            SystemElement::Gap { length, index } => Element::Gap {
-                length_m: *length,
-                index: *index,
-            },
-        })
-        .collect();
+    let elements: Vec<Element> = s.optics_elements();
     let t = trace(object, &elements, 1.0);
     let mut chain = match object {
         Object::AtInfinity => "L = 0 (object at infinity)".to_owned(),
