@@ -18,12 +18,13 @@ use parax_syntax::Span;
 
 /// Every derived value and diagnostic of a case.
 pub fn compute(case: &Case, derived: &mut Vec<Derived>, diags: &mut Vec<Diagnostic>) {
+    let visits = visits::Visits::new(case);
     for e in &case.eyes {
         let mut out = Out::new(eye::block_id(e), derived);
         eye::compute(case, e, &mut out, diags);
         near::compute(case, e, &mut out);
         iol::compute(e, &mut out, diags);
-        visits::compute(case, e, &mut out, diags);
+        visits::compute(case, &visits, e, &mut out, diags);
     }
     for s in &case.systems {
         system::compute(s, &mut Out::new(system::block_id(s), derived), diags);

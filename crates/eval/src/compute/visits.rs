@@ -9,6 +9,7 @@ use crate::diagnostic::{Diagnostic, Severity};
 use crate::model::{Case, Eye, Side};
 use crate::sources as src;
 use parax_optics::refraction::SphCyl;
+use std::collections::HashMap;
 
 fn rx(e: &Eye) -> Option<SphCyl> {
     e.refraction
@@ -30,14 +31,56 @@ fn days(date: &str) -> Option<i64> {
     Some(era * 146097 + doe - 719468)
 }
 
-pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+/// Look-ups over every eye block of a case, built once per evaluation so that
+/// each eye block finds its partner and its previous visit without scanning all
+/// the others (which was quadratic in the number of eye blocks).
+pub(super) struct Visits<'a> {
+    /// First eye block with a refraction for each (side, date).
+    first: HashMap<(Side, Option<&'a str>), usize>,
+    /// Per side, (day number, index) of each dated eye block with a refraction,
+    /// sorted; ties keep file order.
+    dated: HashMap<Side, Vec<(i64, usize)>>,
+}
+
+impl<'a> Visits<'a> {
+    /// Index the eye blocks of `case`.
+    pub(super) fn new(case: &'a Case) -> Self {
+        let mut first = HashMap::new();
+        let mut dated: HashMap<Side, Vec<(i64, usize)>> = HashMap::new();
+        for (i, o) in case.eyes.iter().enumerate() {
+            if o.refraction.is_none() {
+                continue;
+            }
+            first.entry((o.side, o.date.as_deref())).or_insert(i);
+            if let Some(d) = o.date.as_deref().and_then(days) {
+                dated.entry(o.side).or_default().push((d, i));
+            }
+        }
+        for v in dated.values_mut() {
+            v.sort_unstable();
+        }
+        Visits { first, dated }
+    }
+}
+
+pub(super) fn compute(
+    case: &Case,
+    visits: &Visits<'_>,
+    e: &Eye,
+    out: &mut Out<'_>,
+    diags: &mut Vec<Diagnostic>,
+) {
     let Some(this) = rx(e) else { return };
     let span = e.refraction.as_ref().map_or(e.span, |r| r.span);
     // Anisometropia: the other eye of the same visit (same date, or both undated).
-    if let Some(other) = case
-        .eyes
-        .iter()
-        .find(|o| o.side != e.side && o.date == e.date && o.refraction.is_some())
+    let other_side = match e.side {
+        Side::Right => Side::Left,
+        Side::Left => Side::Right,
+    };
+    if let Some(other) = visits
+        .first
+        .get(&(other_side, e.date.as_deref()))
+        .map(|&i| &case.eyes[i])
     {
         let o = rx(other).expect("checked");
         let (r, l) = if e.side == Side::Right {
@@ -96,13 +139,11 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>, diags: &mut Vec<D
     let Some(now) = e.date.as_deref().and_then(days) else {
         return;
     };
-    let prev = case
-        .eyes
-        .iter()
-        .filter(|o| o.side == e.side && o.refraction.is_some())
-        .filter_map(|o| Some((o.date.as_deref().and_then(days)?, o)))
-        .filter(|(d, _)| *d < now)
-        .max_by_key(|(d, _)| *d);
+    // The latest earlier visit; among visits of the same day, the last in the file.
+    let prev = visits.dated.get(&e.side).and_then(|v| {
+        let k = v.partition_point(|&(d, _)| d < now);
+        k.checked_sub(1).map(|k| (v[k].0, &case.eyes[v[k].1]))
+    });
     let Some((then, before)) = prev else { return };
     let b = rx(before).expect("checked");
     let change = this.power_vector().sub(&b.power_vector());
