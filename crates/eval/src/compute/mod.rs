@@ -10,6 +10,8 @@ mod spectacle;
 mod system;
 mod visits;
 
+pub use visits::Visits;
+
 use crate::derived::{Derivation, Derived, DerivedValue, Source};
 use crate::diagnostic::Diagnostic;
 use crate::model::{Case, Eye, Frame, Side};
@@ -18,14 +20,33 @@ use parax_syntax::Span;
 
 /// Every derived value and diagnostic of a case.
 pub fn compute(case: &Case, derived: &mut Vec<Derived>, diags: &mut Vec<Diagnostic>) {
-    let visits = visits::Visits::new(case);
+    let visits = Visits::new(case);
     for e in &case.eyes {
-        let mut out = Out::new(eye::block_id(e), derived);
-        eye::compute(case, e, &mut out, diags);
-        near::compute(case, e, &mut out);
-        iol::compute(e, &mut out, diags);
-        visits::compute(case, &visits, e, &mut out, diags);
+        compute_eye(case, &visits, e, derived, diags);
     }
+    compute_others(case, derived, diags);
+}
+
+/// The values of one eye block. Besides the block itself they depend on the
+/// `case` block and the frames (`case`), and on the eye's partner and previous
+/// visit (`visits`); nothing else.
+pub fn compute_eye(
+    case: &Case,
+    visits: &Visits<'_>,
+    e: &Eye,
+    derived: &mut Vec<Derived>,
+    diags: &mut Vec<Diagnostic>,
+) {
+    let mut out = Out::new(eye::block_id(e), derived);
+    eye::compute(case, e, &mut out, diags);
+    near::compute(case, e, &mut out);
+    iol::compute(e, &mut out, diags);
+    visits::compute(case, visits, e, &mut out, diags);
+}
+
+/// The values of every block other than the eye blocks, in the order of
+/// [`compute`].
+pub fn compute_others(case: &Case, derived: &mut Vec<Derived>, diags: &mut Vec<Diagnostic>) {
     for s in &case.systems {
         system::compute(s, &mut Out::new(system::block_id(s), derived), diags);
     }

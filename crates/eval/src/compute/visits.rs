@@ -34,7 +34,7 @@ fn days(date: &str) -> Option<i64> {
 /// Look-ups over every eye block of a case, built once per evaluation so that
 /// each eye block finds its partner and its previous visit without scanning all
 /// the others (which was quadratic in the number of eye blocks).
-pub(super) struct Visits<'a> {
+pub struct Visits<'a> {
     /// First eye block with a refraction for each (side, date).
     first: HashMap<(Side, Option<&'a str>), usize>,
     /// Per side, (day number, index) of each dated eye block with a refraction,
@@ -44,7 +44,7 @@ pub(super) struct Visits<'a> {
 
 impl<'a> Visits<'a> {
     /// Index the eye blocks of `case`.
-    pub(super) fn new(case: &'a Case) -> Self {
+    pub fn new(case: &'a Case) -> Self {
         let mut first = HashMap::new();
         let mut dated: HashMap<Side, Vec<(i64, usize)>> = HashMap::new();
         for (i, o) in case.eyes.iter().enumerate() {
@@ -61,6 +61,25 @@ impl<'a> Visits<'a> {
         }
         Visits { first, dated }
     }
+
+    /// Index in `case.eyes` of the other eye of the same visit, if any.
+    pub fn partner(&self, e: &Eye) -> Option<usize> {
+        e.refraction.as_ref()?;
+        let other_side = match e.side {
+            Side::Right => Side::Left,
+            Side::Left => Side::Right,
+        };
+        self.first.get(&(other_side, e.date.as_deref())).copied()
+    }
+
+    /// Index in `case.eyes` of the previous dated visit of the same eye, if any.
+    pub fn previous(&self, e: &Eye) -> Option<usize> {
+        e.refraction.as_ref()?;
+        let now = e.date.as_deref().and_then(days)?;
+        let v = self.dated.get(&e.side)?;
+        let k = v.partition_point(|&(d, _)| d < now);
+        k.checked_sub(1).map(|k| v[k].1)
+    }
 }
 
 pub(super) fn compute(
@@ -73,15 +92,7 @@ pub(super) fn compute(
     let Some(this) = rx(e) else { return };
     let span = e.refraction.as_ref().map_or(e.span, |r| r.span);
     // Anisometropia: the other eye of the same visit (same date, or both undated).
-    let other_side = match e.side {
-        Side::Right => Side::Left,
-        Side::Left => Side::Right,
-    };
-    if let Some(other) = visits
-        .first
-        .get(&(other_side, e.date.as_deref()))
-        .map(|&i| &case.eyes[i])
-    {
+    if let Some(other) = visits.partner(e).map(|i| &case.eyes[i]) {
         let o = rx(other).expect("checked");
         let (r, l) = if e.side == Side::Right {
             (this, o)
@@ -140,9 +151,9 @@ pub(super) fn compute(
         return;
     };
     // The latest earlier visit; among visits of the same day, the last in the file.
-    let prev = visits.dated.get(&e.side).and_then(|v| {
-        let k = v.partition_point(|&(d, _)| d < now);
-        k.checked_sub(1).map(|k| (v[k].0, &case.eyes[v[k].1]))
+    let prev = visits.previous(e).map(|i| {
+        let o = &case.eyes[i];
+        (o.date.as_deref().and_then(days).expect("dated"), o)
     });
     let Some((then, before)) = prev else { return };
     let b = rx(before).expect("checked");
