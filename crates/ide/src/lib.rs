@@ -33,7 +33,26 @@ pub struct Analysis {
 impl Analysis {
     /// Parse and evaluate `source`.
     pub fn new(source: &str) -> Self {
-        let (parsed, evaluation) = parax_eval::evaluate_source(source);
+        let parsed = parax_syntax::parse(source);
+        let evaluation = parax_eval::evaluate_incremental(&parsed, None);
+        Self::from_parts(parsed, evaluation)
+    }
+
+    /// The analysis of `source`, a later version of the same document: only the
+    /// lines that differ are parsed again (`parax_syntax::reparse`) and only the
+    /// eye blocks whose inputs changed are computed again
+    /// (`parax_eval::evaluate_incremental`); the result equals [`Analysis::new`].
+    pub fn update(self, source: &str) -> Self {
+        let Analysis {
+            parsed, evaluation, ..
+        } = self;
+        let (range, insert) = changed(&parsed.source, source);
+        let parsed = parsed.edit(range, insert);
+        let evaluation = parax_eval::evaluate_incremental(&parsed, Some(evaluation));
+        Self::from_parts(parsed, evaluation)
+    }
+
+    fn from_parts(parsed: Parsed, evaluation: Evaluation) -> Self {
         let mut by_start: Vec<usize> = (0..evaluation.derived.len()).collect();
         by_start.sort_by_key(|&i| evaluation.derived[i].span.start);
         Analysis {
@@ -93,4 +112,27 @@ impl Analysis {
 /// True when two spans overlap or touch.
 pub(crate) fn meets(a: Span, b: Span) -> bool {
     a.start <= b.end && b.start <= a.end
+}
+
+/// The one edit that turns `old` into `new`: the bytes of `old` between the
+/// common prefix and the common suffix, and what replaces them in `new`. Edits
+/// merged from several changes become one range covering them all.
+fn changed<'a>(old: &str, new: &'a str) -> (std::ops::Range<usize>, &'a str) {
+    let (a, b) = (old.as_bytes(), new.as_bytes());
+    let mut prefix = a.iter().zip(b).take_while(|(x, y)| x == y).count();
+    while !old.is_char_boundary(prefix) {
+        prefix -= 1;
+    }
+    let room = a.len().min(b.len()) - prefix;
+    let mut suffix = a
+        .iter()
+        .rev()
+        .zip(b.iter().rev())
+        .take(room)
+        .take_while(|(x, y)| x == y)
+        .count();
+    while !old.is_char_boundary(a.len() - suffix) || !new.is_char_boundary(b.len() - suffix) {
+        suffix -= 1;
+    }
+    (prefix..a.len() - suffix, &new[prefix..b.len() - suffix])
 }
