@@ -22,7 +22,7 @@ use std::ops::Range;
 
 /// What one eye block's result depends on: its text, its partner's and its
 /// previous visit's.
-#[derive(Debug, Clone, PartialEq, Eq, Hash)]
+#[derive(Debug, Clone, PartialEq, Eq)]
 struct EyeKey {
     text: String,
     partner: Option<String>,
@@ -83,14 +83,16 @@ pub fn evaluate_incremental(parsed: &Parsed, previous: Option<Evaluation>) -> Ev
         context.push_str(parsed.text(b.span));
         context.push('\0');
     }
-    let (mut old_derived, old_eyes) = match previous {
+    let (old_derived, old_eyes) = match previous {
         Some(p) if p.memo.context == context => (p.derived, p.memo.eyes),
         _ => (Vec::new(), Vec::new()),
     };
-    let mut old: HashMap<&EyeKey, usize> = HashMap::with_capacity(old_eyes.len());
+    // By the block's own text (unique: the header holds side and date, and ids
+    // are unique); partner and previous visit are compared on a hit.
+    let mut old: HashMap<&str, usize> = HashMap::with_capacity(old_eyes.len());
     for (i, m) in old_eyes.iter().enumerate() {
         if m.reusable {
-            old.insert(&m.key, i);
+            old.insert(m.key.text.as_str(), i);
         }
     }
     // The block of each eye (eyes are pushed in block order, blocks are sorted).
@@ -106,6 +108,11 @@ pub fn evaluate_incremental(parsed: &Parsed, previous: Option<Evaluation>) -> Ev
         .collect();
     let visits = Visits::new(&case);
     let mut derived: Vec<Derived> = Vec::with_capacity(old_derived.len());
+    // Reused values are moved out of the old list in one forward pass (eye blocks
+    // keep their order unless blocks are moved around; an eye whose values lie
+    // behind the pass is computed again instead).
+    let mut pool = old_derived.into_iter();
+    let mut pos = 0;
     let mut eyes = Vec::with_capacity(case.eyes.len());
     let mut eye_expects = Vec::new();
     for (i, e) in case.eyes.iter().enumerate() {
@@ -117,15 +124,21 @@ pub fn evaluate_incremental(parsed: &Parsed, previous: Option<Evaluation>) -> Ev
             previous: visits.previous(e).map(text_of),
         };
         let start = derived.len();
-        let memo = match old.get(&key) {
+        let found = old
+            .get(key.text.as_str())
+            .filter(|&&j| old_eyes[j].key == key && old_eyes[j].derived.start >= pos);
+        let memo = match found {
             Some(&j) => {
                 let m = &old_eyes[j];
                 let by = block.start as isize - m.base as isize;
-                derived.extend(m.derived.clone().map(|k| {
-                    let mut d = std::mem::replace(&mut old_derived[k], placeholder());
+                if m.derived.start > pos {
+                    pool.nth(m.derived.start - pos - 1);
+                }
+                derived.extend(pool.by_ref().take(m.derived.len()).map(|mut d| {
                     d.span = d.span.moved(by);
                     d
                 }));
+                pos = m.derived.end;
                 EyeMemo {
                     key,
                     base: block.start,
@@ -176,23 +189,5 @@ pub fn evaluate_incremental(parsed: &Parsed, previous: Option<Evaluation>) -> Ev
         derived,
         diagnostics,
         memo: Memo { context, eyes },
-    }
-}
-
-/// A value that allocates nothing, left where a reused value was moved out.
-fn placeholder() -> Derived {
-    Derived {
-        key: String::new(),
-        name: String::new(),
-        label: String::new(),
-        value: crate::DerivedValue::Number { value: 0.0 },
-        text: String::new(),
-        span: Span::default(),
-        derivation: crate::derived::Derivation {
-            formula: "",
-            substituted: String::new(),
-            source: crate::sources::THIBOS_1997,
-        },
-        caution: None,
     }
 }

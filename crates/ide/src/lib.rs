@@ -53,8 +53,16 @@ impl Analysis {
     }
 
     fn from_parts(parsed: Parsed, evaluation: Evaluation) -> Self {
-        let mut by_start: Vec<usize> = (0..evaluation.derived.len()).collect();
-        by_start.sort_by_key(|&i| evaluation.derived[i].span.start);
+        // Sorted by (start, index): ties keep the order of `derived`, as a stable
+        // sort would. The keys sit next to each other (no look-up per comparison).
+        let mut keyed: Vec<(usize, usize)> = evaluation
+            .derived
+            .iter()
+            .enumerate()
+            .map(|(i, d)| (d.span.start, i))
+            .collect();
+        keyed.sort_unstable();
+        let by_start = keyed.into_iter().map(|(_, i)| i).collect();
         Analysis {
             parsed,
             evaluation,
