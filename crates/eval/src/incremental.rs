@@ -107,13 +107,32 @@ pub fn evaluate_incremental(parsed: &Parsed, previous: Option<Evaluation>) -> Ev
         })
         .collect();
     let visits = Visits::new(&case);
-    let mut derived: Vec<Derived> = Vec::with_capacity(old_derived.len());
-    // Reused values are moved out of the old list in one forward pass (eye blocks
-    // keep their order unless blocks are moved around; an eye whose values lie
-    // behind the pass is computed again instead).
-    let mut pool = old_derived.into_iter();
-    let mut pos = 0;
-    let mut eyes = Vec::with_capacity(case.eyes.len());
+    // The old list is edited in place: `derived[..w]` is final, and from `w` on
+    // it still holds the old values from old index `r`. A reused eye's values stay
+    // where they are (only their spans move); the values computed afresh wait in
+    // `fresh` and replace the unused old values before the next reused eye, which
+    // moves nothing when their count is unchanged (the usual edit). An eye whose
+    // old values lie behind `r` (blocks moved around) is computed again.
+    let mut derived = old_derived;
+    let (mut w, mut r) = (0, 0);
+    let mut fresh: Vec<Derived> = Vec::new();
+    // Eyes computed afresh whose memo ranges still count from the start of `fresh`.
+    let mut waiting: Vec<usize> = Vec::new();
+    let flush = |derived: &mut Vec<Derived>,
+                 eyes: &mut Vec<EyeMemo>,
+                 waiting: &mut Vec<usize>,
+                 fresh: &mut Vec<Derived>,
+                 w: &mut usize,
+                 until: usize| {
+        let n = fresh.len();
+        derived.splice(*w..until, fresh.drain(..));
+        for k in waiting.drain(..) {
+            let m = &mut eyes[k];
+            m.derived = m.derived.start + *w..m.derived.end + *w;
+        }
+        *w += n;
+    };
+    let mut eyes: Vec<EyeMemo> = Vec::with_capacity(case.eyes.len());
     let mut eye_expects = Vec::new();
     for (i, e) in case.eyes.iter().enumerate() {
         let block = blocks[i];
@@ -123,26 +142,35 @@ pub fn evaluate_incremental(parsed: &Parsed, previous: Option<Evaluation>) -> Ev
             partner: visits.partner(e).map(text_of),
             previous: visits.previous(e).map(text_of),
         };
-        let start = derived.len();
         let found = old
             .get(key.text.as_str())
-            .filter(|&&j| old_eyes[j].key == key && old_eyes[j].derived.start >= pos);
+            .filter(|&&j| old_eyes[j].key == key && old_eyes[j].derived.start >= r);
         let memo = match found {
             Some(&j) => {
                 let m = &old_eyes[j];
                 let by = block.start as isize - m.base as isize;
-                if m.derived.start > pos {
-                    pool.nth(m.derived.start - pos - 1);
+                // Old values r..m.derived.start (of eyes not reused) give way.
+                let until = w + (m.derived.start - r);
+                flush(
+                    &mut derived,
+                    &mut eyes,
+                    &mut waiting,
+                    &mut fresh,
+                    &mut w,
+                    until,
+                );
+                let start = w;
+                if by != 0 {
+                    for d in &mut derived[start..start + m.derived.len()] {
+                        d.span = d.span.moved(by);
+                    }
                 }
-                derived.extend(pool.by_ref().take(m.derived.len()).map(|mut d| {
-                    d.span = d.span.moved(by);
-                    d
-                }));
-                pos = m.derived.end;
+                w += m.derived.len();
+                r = m.derived.end;
                 EyeMemo {
                     key,
                     base: block.start,
-                    derived: start..derived.len(),
+                    derived: start..w,
                     diags: m.diags.iter().map(|d| shift_diag(d.clone(), by)).collect(),
                     expects: m
                         .expects
@@ -153,11 +181,12 @@ pub fn evaluate_incremental(parsed: &Parsed, previous: Option<Evaluation>) -> Ev
                 }
             }
             None => {
+                let start = fresh.len();
                 let mut diags = Vec::new();
-                compute::compute_eye(&case, &visits, e, &mut derived, &mut diags);
+                compute::compute_eye(&case, &visits, e, &mut fresh, &mut diags);
                 let mut expects = Vec::new();
-                expect::check(&ids[i], &e.expects, &derived[start..], &mut expects);
-                let reusable = derived[start..].iter().all(|d| inside(d.span, block))
+                expect::check(&ids[i], &e.expects, &fresh[start..], &mut expects);
+                let reusable = fresh[start..].iter().all(|d| inside(d.span, block))
                     && diags.iter().chain(&expects).all(|d| {
                         inside(d.span, block)
                             && d.fix
@@ -165,10 +194,11 @@ pub fn evaluate_incremental(parsed: &Parsed, previous: Option<Evaluation>) -> Ev
                                 .flat_map(|f| &f.edits)
                                 .all(|x| inside(x.span, block))
                     });
+                waiting.push(eyes.len());
                 EyeMemo {
                     key,
                     base: block.start,
-                    derived: start..derived.len(),
+                    derived: start..fresh.len(),
                     diags,
                     expects,
                     reusable,
@@ -179,6 +209,16 @@ pub fn evaluate_incremental(parsed: &Parsed, previous: Option<Evaluation>) -> Ev
         eye_expects.extend(memo.expects.iter().cloned());
         eyes.push(memo);
     }
+    // The remaining old values (eyes not reused, and the other blocks') go.
+    let end = derived.len();
+    flush(
+        &mut derived,
+        &mut eyes,
+        &mut waiting,
+        &mut fresh,
+        &mut w,
+        end,
+    );
     let others = derived.len();
     compute::compute_others(&case, &mut derived, &mut diagnostics);
     diagnostics.extend(eye_expects);
