@@ -45,3 +45,51 @@ fn update_equals_a_fresh_analysis() {
         same(&a, &Analysis::new(&text));
     }
 }
+
+/// The values of each line, found through the ordered index, are the values
+/// whose statement starts on that line, in evaluation order: checked on files
+/// whose values are nearly in order (eye blocks) and far out of order (systems
+/// before eyes: their values come after the eyes' in the evaluation).
+#[test]
+fn values_per_line_follow_the_evaluation_order() {
+    let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("../../examples");
+    let mut texts: Vec<String> = [
+        "clinic-review.parax",
+        "bench-relay.parax",
+        "schematic-eyes.parax",
+    ]
+    .iter()
+    .map(|f| std::fs::read_to_string(root.join(f)).expect("example"))
+    .collect();
+    // Systems first, then many eye blocks: far out of order.
+    texts.push(format!(
+        "{}\n{}",
+        texts[1].clone() + &texts[2],
+        texts[0].repeat(3)
+    ));
+    for text in texts {
+        let a = Analysis::new(&text);
+        for line in &a.parsed.lines {
+            let got: Vec<*const _> = a.derived_on_line(line).map(|d| d as *const _).collect();
+            let want: Vec<*const _> = a
+                .evaluation
+                .derived
+                .iter()
+                .filter(|d| line.span.start <= d.span.start && d.span.start <= line.span.end)
+                .map(|d| d as *const _)
+                .collect();
+            let mut want_sorted = want.clone();
+            // Same set; order by start, ties in evaluation order.
+            want_sorted.sort_by_key(|&p| {
+                let i = a
+                    .evaluation
+                    .derived
+                    .iter()
+                    .position(|d| std::ptr::eq(d, p))
+                    .unwrap();
+                (a.evaluation.derived[i].span.start, i)
+            });
+            assert_eq!(got, want_sorted, "line {:?}", a.parsed.text(line.span));
+        }
+    }
+}
