@@ -9,6 +9,7 @@ mod compute;
 pub mod derived;
 pub mod diagnostic;
 mod expect;
+mod incremental;
 mod lower;
 pub mod model;
 pub mod read;
@@ -19,6 +20,7 @@ pub mod units;
 pub use compute::slug;
 pub use derived::{Derived, DerivedValue, Difference};
 pub use diagnostic::{Diagnostic, Edit, Fix, Severity, GENERAL_CAUTION};
+pub use incremental::evaluate_incremental;
 pub use model::Case;
 
 use parax_syntax::Parsed;
@@ -32,6 +34,8 @@ pub struct Evaluation {
     pub derived: Vec<Derived>,
     /// Every diagnostic (syntax, notation, units, clinical, expect), by position.
     pub diagnostics: Vec<Diagnostic>,
+    /// Per-block results kept for [`evaluate_incremental`] (empty from [`evaluate`]).
+    memo: incremental::Memo,
 }
 
 impl Evaluation {
@@ -54,6 +58,7 @@ pub fn evaluate(parsed: &Parsed) -> Evaluation {
         case,
         derived,
         diagnostics,
+        memo: Default::default(),
     }
 }
 
@@ -73,6 +78,19 @@ pub fn evaluate_case(case: &Case) -> (Vec<Derived>, Vec<Diagnostic>) {
     // Each block's values are pushed together; index the range of each block id
     // once, so checking `expect` lines costs one look-up per block instead of a
     // scan of every value of the file (quadratic on large files).
+    let ranges = block_ranges(&derived);
+    let of = |id: &str| -> &[Derived] { ranges.get(id).map_or(&[][..], |&(a, b)| &derived[a..b]) };
+    for e in &case.eyes {
+        let id = compute::eye_block_id(e);
+        expect::check(&id, &e.expects, of(&id), &mut diags);
+    }
+    check_others(case, &derived, &mut diags);
+    (derived, diags)
+}
+
+/// The range of each block id's values in `derived` (each block's values are
+/// pushed together).
+fn block_ranges(derived: &[Derived]) -> std::collections::HashMap<&str, (usize, usize)> {
     let mut ranges: std::collections::HashMap<&str, (usize, usize)> =
         std::collections::HashMap::new();
     for (i, d) in derived.iter().enumerate() {
@@ -83,32 +101,34 @@ pub fn evaluate_case(case: &Case) -> (Vec<Derived>, Vec<Diagnostic>) {
         let r = ranges.entry(block).or_insert((i, i + 1));
         r.1 = i + 1;
     }
+    ranges
+}
+
+/// Check the `expect` lines of every block other than the eye blocks against
+/// `derived` (which must hold those blocks' values).
+fn check_others(case: &Case, derived: &[Derived], diags: &mut Vec<Diagnostic>) {
+    let ranges = block_ranges(derived);
     let of = |id: &str| -> &[Derived] { ranges.get(id).map_or(&[][..], |&(a, b)| &derived[a..b]) };
-    for e in &case.eyes {
-        let id = compute::eye_block_id(e);
-        expect::check(&id, &e.expects, of(&id), &mut diags);
-    }
     for s in &case.systems {
         let id = compute::system_block_id(s);
-        expect::check(&id, &s.expects, of(&id), &mut diags);
+        expect::check(&id, &s.expects, of(&id), diags);
     }
     for f in &case.frames {
         let id = compute::frame_id(f);
-        expect::check(&id, &f.expects, of(&id), &mut diags);
+        expect::check(&id, &f.expects, of(&id), diags);
     }
     for l in &case.spectacle_lenses {
         let id = compute::spectacle_block_id(l);
-        expect::check(&id, &l.expects, of(&id), &mut diags);
+        expect::check(&id, &l.expects, of(&id), diags);
     }
     for c in &case.contact_lenses {
         let id = compute::contact_block_id(c);
-        expect::check(&id, &c.expects, of(&id), &mut diags);
+        expect::check(&id, &c.expects, of(&id), diags);
     }
     for m in &case.model_eyes {
         let id = compute::model_eye_block_id(m);
-        expect::check(&id, &m.expects, of(&id), &mut diags);
+        expect::check(&id, &m.expects, of(&id), diags);
     }
-    (derived, diags)
 }
 
 fn from_syntax(e: &parax_syntax::SyntaxError) -> Diagnostic {

@@ -21,6 +21,9 @@ struct Doc {
     rope: Rope,
     version: i32,
     analysis: Option<(i32, Arc<Analysis>)>,
+    /// An analysis of an older version, finished after a newer one arrived: the
+    /// worker updates from it (any earlier text will do; it is diffed).
+    base: Option<Arc<Analysis>>,
 }
 
 #[derive(Default)]
@@ -113,14 +116,32 @@ async fn worker(client: Client, state: Arc<Mutex<State>>, wake: Arc<Notify>) {
                     break;
                 };
                 let unit = st.unit.unwrap_or(ColumnUnit::Utf16);
-                st.docs
-                    .get(&key)
-                    .map(|d| (key, d.uri.clone(), d.rope.to_string(), d.version, unit))
+                // The previous analysis (of an older version) is taken out to be
+                // updated: only what changed is parsed and computed again.
+                st.docs.get_mut(&key).map(|d| {
+                    let previous = d.analysis.take().map(|(_, a)| a).or(d.base.take());
+                    (
+                        key,
+                        d.uri.clone(),
+                        d.rope.to_string(),
+                        d.version,
+                        unit,
+                        previous,
+                    )
+                })
             };
-            let Some((key, uri, text, version, unit)) = job else {
+            let Some((key, uri, text, version, unit, previous)) = job else {
                 continue;
             };
-            let Ok(a) = tokio::task::spawn_blocking(move || Analysis::new(&text)).await else {
+            let Ok(a) = tokio::task::spawn_blocking(move || match previous {
+                // Unshared unless a request is reading it right now.
+                Some(p) => Arc::try_unwrap(p)
+                    .unwrap_or_else(|p| (*p).clone())
+                    .update(&text),
+                None => Analysis::new(&text),
+            })
+            .await
+            else {
                 continue;
             };
             let a = Arc::new(a);
@@ -131,7 +152,13 @@ async fn worker(client: Client, state: Arc<Mutex<State>>, wake: Arc<Notify>) {
                         doc.analysis = Some((version, a.clone()));
                         true
                     }
-                    _ => false,
+                    // A newer version arrived meanwhile: the next round updates
+                    // from this one.
+                    Some(doc) => {
+                        doc.base = Some(a.clone());
+                        false
+                    }
+                    None => false,
                 }
             };
             // A newer version arrived meanwhile: it is dirty again and will be published.
@@ -257,6 +284,7 @@ impl LanguageServer for Server {
                     rope: Rope::from_str(&d.text),
                     version: d.version,
                     analysis: None,
+                    base: None,
                 },
             );
         }

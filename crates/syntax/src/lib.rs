@@ -14,6 +14,6 @@ mod tree;
 
 pub use error::{codes, SyntaxError};
 pub use line_index::{ColumnUnit, LineIndex, LinePos};
-pub use parser::parse;
+pub use parser::{parse, reparse};
 pub use span::Span;
 pub use tree::*;

@@ -33,50 +33,150 @@ pub fn parse(source: &str) -> Parsed {
         Err(_) => {
             for line_no in 0..index.line_count() {
                 let span = index.line_span(source, line_no);
-                let text = &source[span.start..span.end];
-                match Grammar::parse(Rule::line_only, text) {
-                    Ok(mut pairs) => {
-                        let pair = pairs.next().expect("line rule yields one pair");
-                        lines.push(walk_line(pair, span, span.start));
-                    }
-                    Err(e) => {
-                        let at = match e.location {
-                            pest::error::InputLocation::Pos(p) => p,
-                            pest::error::InputLocation::Span((s, _)) => s,
-                        };
-                        errors.push(line_error(text, span.start, at));
-                        lines.push(Line {
-                            span,
-                            indent: indent_width(text),
-                            kind: LineKind::Error {
-                                error: errors.len() - 1,
-                            },
-                            comment: None,
-                        });
-                    }
-                }
+                lines.push(parse_line(source, span, &mut errors));
             }
         }
     }
-    let blocks = group_blocks(source, &mut lines, &mut errors);
+    finish(source.to_owned(), index, lines, errors)
+}
+
+/// Parse one line on its own (the line-by-line path). A line the grammar rejects
+/// becomes an error line with its error pushed onto `errors`.
+fn parse_line(source: &str, span: Span, errors: &mut Vec<SyntaxError>) -> Line {
+    let text = &source[span.start..span.end];
+    match Grammar::parse(Rule::line_only, text) {
+        Ok(mut pairs) => {
+            let pair = pairs.next().expect("line rule yields one pair");
+            walk_line(pair, span, span.start)
+        }
+        Err(e) => {
+            let at = match e.location {
+                pest::error::InputLocation::Pos(p) => p,
+                pest::error::InputLocation::Span((s, _)) => s,
+            };
+            errors.push(line_error(text, span.start, at));
+            Line {
+                span,
+                indent: indent_width(text),
+                kind: LineKind::Error {
+                    error: errors.len() - 1,
+                },
+                comment: None,
+            }
+        }
+    }
+}
+
+/// Group the lines into blocks, sort the errors and point error lines at them.
+fn finish(
+    source: String,
+    index: LineIndex,
+    mut lines: Vec<Line>,
+    mut errors: Vec<SyntaxError>,
+) -> Parsed {
+    let blocks = group_blocks(&source, &mut lines, &mut errors);
     errors.sort_by_key(|e| e.span.start);
-    // Error lines point into `errors` by index: renumber after sorting.
+    // Error lines point into `errors` by index: renumber after sorting. Both are
+    // in source order, so one forward walk finds, for each error line, the first
+    // error that starts inside it (a linear merge; a search per line was
+    // quadratic in files with many errors).
+    let mut next = 0;
     for line in &mut lines {
         if let LineKind::Error { error } = &mut line.kind {
-            if let Some(i) = errors
-                .iter()
-                .position(|e| line.span.start <= e.span.start && e.span.start <= line.span.end)
-            {
-                *error = i;
+            while next < errors.len() && errors[next].span.start < line.span.start {
+                next += 1;
+            }
+            if next < errors.len() && errors[next].span.start <= line.span.end {
+                *error = next;
             }
         }
     }
     Parsed {
-        source: source.to_owned(),
+        source,
         lines,
         blocks,
         errors,
         index,
+    }
+}
+
+/// Re-parse after one edit: `old` is the parse of the text before the edit, which
+/// replaced the bytes `edit` of `old.source` with `new_text`. The result is exactly
+/// [`parse`] of the edited text (a property test checks it), but only the lines the
+/// edit touches are read again by the grammar. This is possible because the grammar
+/// is line-local (a line's reading never depends on another line): the other lines
+/// are reused with their spans shifted, and only the grouping into blocks (one cheap
+/// pass over the lines, no grammar) is redone for the whole file. An edit range that
+/// is reversed, out of bounds or not on character boundaries gets a full parse.
+pub fn reparse(old: &Parsed, edit: std::ops::Range<usize>, new_text: &str) -> Parsed {
+    old.clone().edit(edit, new_text)
+}
+
+impl Parsed {
+    /// Apply one edit (replace the bytes `edit` of the source with `new_text`) and
+    /// re-parse only the lines it touches; see [`reparse`], which is this on a copy.
+    pub fn edit(self, edit: std::ops::Range<usize>, new_text: &str) -> Parsed {
+        let old_src = &self.source;
+        if edit.start > edit.end
+            || edit.end > old_src.len()
+            || !old_src.is_char_boundary(edit.start)
+            || !old_src.is_char_boundary(edit.end)
+        {
+            return parse(old_src);
+        }
+        let mut source = String::with_capacity(old_src.len() - edit.len() + new_text.len());
+        source.push_str(&old_src[..edit.start]);
+        source.push_str(new_text);
+        source.push_str(&old_src[edit.end..]);
+        // A lone `\r` at the very end reads differently whole-file (part of the last
+        // line) and line by line (cut off with the line break): keep it simple.
+        if source.ends_with('\r') || old_src.ends_with('\r') {
+            return parse(&source);
+        }
+        let Parsed {
+            lines: mut old_lines,
+            errors: old_errors,
+            index: old_index,
+            ..
+        } = self;
+        let index = LineIndex::new(&source);
+        // Old lines `first..=last` are replaced by new lines `first..=new_last`.
+        let first = old_index.line_of(edit.start);
+        let last = old_index.line_of(edit.end);
+        let new_last = index.line_of(edit.start + new_text.len());
+        let delta = new_text.len() as isize - edit.len() as isize;
+        let mut errors = Vec::new();
+        // Restore an unchanged line to what the grammar made of it: its own error
+        // back, or (for a statement that stood outside any block, which the
+        // grouping rewrote) read again.
+        let keep = |line: &mut Line, at: usize, errors: &mut Vec<SyntaxError>| {
+            if let LineKind::Error { error } = line.kind {
+                let e = &old_errors[error];
+                if e.code == codes::OUTSIDE_BLOCK {
+                    *line = parse_line(&source, index.line_span(&source, at), errors);
+                } else {
+                    let mut e = e.clone();
+                    e.span = e.span.moved(if at > new_last { delta } else { 0 });
+                    errors.push(e);
+                    line.kind = LineKind::Error {
+                        error: errors.len() - 1,
+                    };
+                }
+            }
+        };
+        for (i, line) in old_lines[..first].iter_mut().enumerate() {
+            keep(line, i, &mut errors);
+        }
+        let fresh: Vec<Line> = (first..=new_last)
+            .map(|i| parse_line(&source, index.line_span(&source, i), &mut errors))
+            .collect();
+        let tail = new_last + 1;
+        for (i, line) in old_lines[last + 1..].iter_mut().enumerate() {
+            line.shift(delta);
+            keep(line, tail + i, &mut errors);
+        }
+        old_lines.splice(first..=last, fresh);
+        finish(source, index, old_lines, errors)
     }
 }
 

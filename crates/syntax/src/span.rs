@@ -47,6 +47,16 @@ impl Span {
     }
 }
 
+impl Span {
+    /// The same span moved by `by` bytes, left when negative.
+    pub fn moved(self, by: isize) -> Span {
+        Span::new(
+            self.start.wrapping_add_signed(by),
+            self.end.wrapping_add_signed(by),
+        )
+    }
+}
+
 impl From<std::ops::Range<usize>> for Span {
     fn from(r: std::ops::Range<usize>) -> Self {
         Span::new(r.start, r.end)

@@ -170,6 +170,31 @@ pub struct Line {
 }
 
 impl Line {
+    /// Move every span of the line by `by` bytes (after an edit before it).
+    pub(crate) fn shift(&mut self, by: isize) {
+        if by == 0 {
+            return;
+        }
+        self.span = self.span.moved(by);
+        self.comment = self.comment.map(|c| c.moved(by));
+        if let LineKind::Header { statement, .. } | LineKind::Statement { statement } =
+            &mut self.kind
+        {
+            statement.keyword = statement.keyword.moved(by);
+            for v in &mut statement.values {
+                v.span = v.span.moved(by);
+                match &mut v.kind {
+                    ValueKind::Number { number, unit, .. } => {
+                        *number = number.moved(by);
+                        *unit = unit.map(|u| u.moved(by));
+                    }
+                    ValueKind::Text { text } => *text = text.moved(by),
+                    _ => {}
+                }
+            }
+        }
+    }
+
     /// The statement on this line, if it is a header or a statement.
     pub fn statement(&self) -> Option<&Statement> {
         match &self.kind {

@@ -2,11 +2,11 @@
 //! power vectors, principal meridians, far points, vertex transfer, near
 //! refraction, keratometry and total corneal power.
 
-use super::{n4, Ctx, Out};
+use super::{n4, Out};
 use crate::codes;
 use crate::derived::{fmt_power, DerivedValue as V};
 use crate::diagnostic::{Diagnostic, Severity};
-use crate::model::Eye;
+use crate::model::{Case, Eye};
 use crate::sources as src;
 use parax_optics::keratometry::{
     corneal_astigmatism, keratometric_power, total_corneal_power, AstigmatismKind, CornealIndices,
@@ -35,7 +35,7 @@ fn show(rx: &SphCyl) -> String {
     sphcyl(rx).display()
 }
 
-pub(super) fn compute(case: &Ctx<'_>, e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
     if let Some(r) = &e.refraction {
         refraction(case, e, r, out, diags);
     }
@@ -45,7 +45,7 @@ pub(super) fn compute(case: &Ctx<'_>, e: &Eye, out: &mut Out<'_>, diags: &mut Ve
 }
 
 fn refraction(
-    case: &Ctx<'_>,
+    case: &Case,
     e: &Eye,
     r: &crate::model::At<crate::model::Refraction>,
     out: &mut Out<'_>,

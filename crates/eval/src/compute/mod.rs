@@ -10,6 +10,8 @@ mod spectacle;
 mod system;
 mod visits;
 
+pub use visits::Visits;
+
 use crate::derived::{Derivation, Derived, DerivedValue, Source};
 use crate::diagnostic::Diagnostic;
 use crate::model::{Case, Eye, Frame, Side};
@@ -18,15 +20,33 @@ use parax_syntax::Span;
 
 /// Every derived value and diagnostic of a case.
 pub fn compute(case: &Case, derived: &mut Vec<Derived>, diags: &mut Vec<Diagnostic>) {
-    let ctx = Ctx::new(case);
-    let case = &ctx;
+    let visits = Visits::new(case);
     for e in &case.eyes {
-        let mut out = Out::new(eye::block_id(e), derived);
-        eye::compute(case, e, &mut out, diags);
-        near::compute(case, e, &mut out);
-        iol::compute(e, &mut out, diags);
-        visits::compute(case, e, &mut out, diags);
+        compute_eye(case, &visits, e, derived, diags);
     }
+    compute_others(case, derived, diags);
+}
+
+/// The values of one eye block. Besides the block itself they depend on the
+/// `case` block and the frames (`case`), and on the eye's partner and previous
+/// visit (`visits`); nothing else.
+pub fn compute_eye(
+    case: &Case,
+    visits: &Visits<'_>,
+    e: &Eye,
+    derived: &mut Vec<Derived>,
+    diags: &mut Vec<Diagnostic>,
+) {
+    let mut out = Out::new(eye::block_id(e), derived);
+    eye::compute(case, e, &mut out, diags);
+    near::compute(case, e, &mut out);
+    iol::compute(e, &mut out, diags);
+    visits::compute(case, visits, e, &mut out, diags);
+}
+
+/// The values of every block other than the eye blocks, in the order of
+/// [`compute`].
+pub fn compute_others(case: &Case, derived: &mut Vec<Derived>, diags: &mut Vec<Diagnostic>) {
     for s in &case.systems {
         system::compute(s, &mut Out::new(system::block_id(s), derived), diags);
     }
@@ -59,82 +79,18 @@ pub fn compute(case: &Case, derived: &mut Vec<Derived>, diags: &mut Vec<Diagnost
     }
 }
 
-/// A case with the look-ups that values of one block make into other blocks,
-/// indexed once so that evaluation stays linear in the number of blocks. Derefs to
-/// the case.
-pub(crate) struct Ctx<'a> {
-    case: &'a Case,
-    /// The eye each side's lenses are fitted to (see [`current_eye`]).
-    current: [Option<&'a Eye>; 2],
-    /// Each side's eyes with a refraction by visit date (days since 1970), sorted.
-    pub(crate) visits: [Vec<(i64, &'a Eye)>; 2],
-    /// Eyes with a refraction by side and date, for the other eye of a visit.
-    pub(crate) by_visit: std::collections::HashMap<(Side, Option<&'a str>), &'a Eye>,
-}
-
-fn side_index(side: Side) -> usize {
-    match side {
-        Side::Right => 0,
-        Side::Left => 1,
-    }
-}
-
-impl<'a> Ctx<'a> {
-    fn new(case: &'a Case) -> Self {
-        let mut current: [Option<&Eye>; 2] = [None, None];
-        let mut visits: [Vec<(i64, &Eye)>; 2] = [Vec::new(), Vec::new()];
-        let mut by_visit = std::collections::HashMap::new();
-        for e in &case.eyes {
-            let i = side_index(e.side);
-            // The undated block if there is one, else the latest dated visit.
-            current[i] = match current[i] {
-                Some(c) if c.date.is_none() => Some(c),
-                _ if e.date.is_none() => Some(e),
-                Some(c) if c.date > e.date => Some(c),
-                _ => Some(e),
-            };
-            if e.refraction.is_some() {
-                if let Some(d) = e.date.as_deref().and_then(visits::days) {
-                    visits[i].push((d, e));
-                }
-                by_visit.entry((e.side, e.date.as_deref())).or_insert(e);
-            }
-        }
-        for v in &mut visits {
-            v.sort_by_key(|(d, _)| *d);
-        }
-        Ctx {
-            case,
-            current,
-            visits,
-            by_visit,
-        }
-    }
-
-    /// The eye with a refraction recorded last before `days` on `side`.
-    pub(crate) fn previous_visit(&self, side: Side, days: i64) -> Option<(i64, &'a Eye)> {
-        let v = &self.visits[side_index(side)];
-        let i = v.partition_point(|(d, _)| *d < days);
-        i.checked_sub(1).map(|i| v[i])
-    }
-}
-
-impl std::ops::Deref for Ctx<'_> {
-    type Target = Case;
-    fn deref(&self) -> &Case {
-        self.case
-    }
-}
-
 /// The eye block a lens of `side` is fitted to: the undated block if there is one,
 /// else the latest dated visit.
-pub(crate) fn current_eye<'a>(case: &Ctx<'a>, side: Side) -> Option<&'a Eye> {
-    case.current[side_index(side)]
+pub(crate) fn current_eye(case: &Case, side: Side) -> Option<&Eye> {
+    let mine = case.eyes.iter().filter(|e| e.side == side);
+    mine.clone()
+        .find(|e| e.date.is_none())
+        .or_else(|| mine.max_by(|a, b| a.date.cmp(&b.date)))
 }
 
 /// The frame the lenses are fitted in: the first `frame` block.
-pub(crate) fn first_frame<'a>(case: &Ctx<'a>) -> Option<&'a Frame> {
-    case.case.frames.first()
+pub(crate) fn first_frame(case: &Case) -> Option<&Frame> {
+    case.frames.first()
 }
 
 /// A spherocylinder as a derived value.

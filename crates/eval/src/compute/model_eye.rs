@@ -3,11 +3,11 @@
 //! second focal point, and the refraction its axial length implies at the cornea
 //! and at a spectacle vertex distance.
 
-use super::{first_frame, n4, slug, Ctx, Out};
+use super::{first_frame, n4, slug, Out};
 use crate::codes;
 use crate::derived::DerivedValue as V;
 use crate::diagnostic::{Diagnostic, Severity};
-use crate::model::ModelEye;
+use crate::model::{Case, ModelEye};
 use crate::sources as src;
 use parax_optics::model_eye::{self, EyeSurface, Schematic};
 use parax_optics::system::{system_matrix_in, system_powers};
@@ -26,12 +26,7 @@ fn power_of(surfaces: &[EyeSurface], n_before: f64) -> f64 {
     system_powers(&system_matrix_in(&els, n_before)).equivalent
 }
 
-pub(super) fn compute(
-    case: &Ctx<'_>,
-    m: &ModelEye,
-    out: &mut Out<'_>,
-    diags: &mut Vec<Diagnostic>,
-) {
+pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
     let Some(from) = &m.from else {
         diags.push(
             Diagnostic::new(

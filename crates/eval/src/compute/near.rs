@@ -2,9 +2,9 @@
 //! recorded (eye or case), the range of clear vision through the add, and an add
 //! suggestion that keeps half the mean amplitude in reserve (rule of thumb).
 
-use super::{n4, Ctx, Out};
+use super::{n4, Out};
 use crate::derived::DerivedValue as V;
-use crate::model::Eye;
+use crate::model::{Case, Eye};
 use crate::sources as src;
 use parax_optics::near;
 use parax_optics::vertex::round_to_step;
@@ -12,7 +12,7 @@ use parax_optics::vertex::round_to_step;
 /// Working distance for the add suggestion, metres (common practice).
 const WORKING_DISTANCE: f64 = 0.40;
 
-pub(super) fn compute(case: &Ctx<'_>, e: &Eye, out: &mut Out<'_>) {
+pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
     let Some(age) = e.age.as_ref().or(case.info.age.as_ref()) else {
         return;
     };

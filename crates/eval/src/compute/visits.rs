@@ -2,13 +2,14 @@
 //! against the other eye of the same visit, and the change of the refraction since
 //! the previous dated visit of the same eye, as power vectors and per year.
 
-use super::{n4, Ctx, Out};
+use super::{n4, Out};
 use crate::codes;
 use crate::derived::DerivedValue as V;
 use crate::diagnostic::{Diagnostic, Severity};
-use crate::model::{Eye, Side};
+use crate::model::{Case, Eye, Side};
 use crate::sources as src;
 use parax_optics::refraction::SphCyl;
+use std::collections::HashMap;
 
 fn rx(e: &Eye) -> Option<SphCyl> {
     e.refraction
@@ -18,7 +19,7 @@ fn rx(e: &Eye) -> Option<SphCyl> {
 
 /// Days since 1970-01-01 of a `YYYY-MM-DD` date (Howard Hinnant's days-from-civil
 /// algorithm; a dozen lines of arithmetic do not justify a date crate).
-pub(crate) fn days(date: &str) -> Option<i64> {
+fn days(date: &str) -> Option<i64> {
     let mut it = date.split('-').map(|p| p.parse::<i64>().ok());
     let (y, m, d) = (it.next()??, it.next()??, it.next()??);
     let y = if m <= 2 { y - 1 } else { y };
@@ -30,15 +31,68 @@ pub(crate) fn days(date: &str) -> Option<i64> {
     Some(era * 146097 + doe - 719468)
 }
 
-pub(super) fn compute(case: &Ctx<'_>, e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+/// Look-ups over every eye block of a case, built once per evaluation so that
+/// each eye block finds its partner and its previous visit without scanning all
+/// the others (which was quadratic in the number of eye blocks).
+pub struct Visits<'a> {
+    /// First eye block with a refraction for each (side, date).
+    first: HashMap<(Side, Option<&'a str>), usize>,
+    /// Per side, (day number, index) of each dated eye block with a refraction,
+    /// sorted; ties keep file order.
+    dated: HashMap<Side, Vec<(i64, usize)>>,
+}
+
+impl<'a> Visits<'a> {
+    /// Index the eye blocks of `case`.
+    pub fn new(case: &'a Case) -> Self {
+        let mut first = HashMap::new();
+        let mut dated: HashMap<Side, Vec<(i64, usize)>> = HashMap::new();
+        for (i, o) in case.eyes.iter().enumerate() {
+            if o.refraction.is_none() {
+                continue;
+            }
+            first.entry((o.side, o.date.as_deref())).or_insert(i);
+            if let Some(d) = o.date.as_deref().and_then(days) {
+                dated.entry(o.side).or_default().push((d, i));
+            }
+        }
+        for v in dated.values_mut() {
+            v.sort_unstable();
+        }
+        Visits { first, dated }
+    }
+
+    /// Index in `case.eyes` of the other eye of the same visit, if any.
+    pub fn partner(&self, e: &Eye) -> Option<usize> {
+        e.refraction.as_ref()?;
+        let other_side = match e.side {
+            Side::Right => Side::Left,
+            Side::Left => Side::Right,
+        };
+        self.first.get(&(other_side, e.date.as_deref())).copied()
+    }
+
+    /// Index in `case.eyes` of the previous dated visit of the same eye, if any.
+    pub fn previous(&self, e: &Eye) -> Option<usize> {
+        e.refraction.as_ref()?;
+        let now = e.date.as_deref().and_then(days)?;
+        let v = self.dated.get(&e.side)?;
+        let k = v.partition_point(|&(d, _)| d < now);
+        k.checked_sub(1).map(|k| v[k].1)
+    }
+}
+
+pub(super) fn compute(
+    case: &Case,
+    visits: &Visits<'_>,
+    e: &Eye,
+    out: &mut Out<'_>,
+    diags: &mut Vec<Diagnostic>,
+) {
     let Some(this) = rx(e) else { return };
     let span = e.refraction.as_ref().map_or(e.span, |r| r.span);
     // Anisometropia: the other eye of the same visit (same date, or both undated).
-    let other_side = match e.side {
-        Side::Right => Side::Left,
-        Side::Left => Side::Right,
-    };
-    if let Some(other) = case.by_visit.get(&(other_side, e.date.as_deref())).copied() {
+    if let Some(other) = visits.partner(e).map(|i| &case.eyes[i]) {
         let o = rx(other).expect("checked");
         let (r, l) = if e.side == Side::Right {
             (this, o)
@@ -96,7 +150,11 @@ pub(super) fn compute(case: &Ctx<'_>, e: &Eye, out: &mut Out<'_>, diags: &mut Ve
     let Some(now) = e.date.as_deref().and_then(days) else {
         return;
     };
-    let prev = case.previous_visit(e.side, now);
+    // The latest earlier visit; among visits of the same day, the last in the file.
+    let prev = visits.previous(e).map(|i| {
+        let o = &case.eyes[i];
+        (o.date.as_deref().and_then(days).expect("dated"), o)
+    });
     let Some((then, before)) = prev else { return };
     let b = rx(before).expect("checked");
     let change = this.power_vector().sub(&b.power_vector());

@@ -1,0 +1,132 @@
+//! `evaluate_incremental` (reusing the previous evaluation for eye blocks whose
+//! inputs did not change) must give exactly what `evaluate` gives: the same
+//! derived values (key, text, span) and the same diagnostics, after random
+//! edits of the example and fixture files and of a long history of visits.
+
+use parax_eval::{evaluate, evaluate_incremental, Evaluation};
+use parax_syntax::{parse, reparse};
+use proptest::prelude::*;
+use std::path::Path;
+
+/// Invented visits (no real patient): dated eye blocks of both eyes, some on
+/// the same day (anisometropia), a frame (vertex) and a case block (age).
+fn visits() -> String {
+    let mut s = String::from(
+        "# Invented data: no real patient.\ncase \"visits\"\n  age 52\n\nframe \"f\"\n  vertex 13 mm\n",
+    );
+    for i in 0..12 {
+        let side = if i % 3 == 0 { "left" } else { "right" };
+        s.push_str(&format!(
+            "\neye {side} 2026-{:02}-0{}\n  refraction -{}.{}5 / -0.50 x {} @ 12 mm\n  add +1.50\n  keratometry 7.8{} mm x 180, 7.6{} mm x 90\n  expect spherical-equivalent -1.50 D\n",
+            1 + i / 2,
+            1 + i % 2,
+            1 + i % 4,
+            i % 10,
+            10 + 7 * i,
+            i % 10,
+            i % 10,
+        ));
+    }
+    s
+}
+
+fn files() -> Vec<String> {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("../..");
+    let mut out = vec![visits()];
+    for dir in ["examples", "tests/fixtures/parse/valid"] {
+        let mut paths: Vec<_> = std::fs::read_dir(root.join(dir))
+            .expect("fixture dir")
+            .map(|e| e.expect("entry").path())
+            .filter(|p| p.extension().is_some_and(|x| x == "parax"))
+            .collect();
+        paths.sort();
+        for p in paths {
+            out.push(std::fs::read_to_string(p).expect("fixture"));
+        }
+    }
+    out
+}
+
+/// What an edit inserts: digits and signs (values change), line structure,
+/// dates (visits reorder), whole blocks, and mistakes.
+const PIECES: &[&str] = &[
+    "",
+    "\n",
+    "  ",
+    "1",
+    "7",
+    "-",
+    ".",
+    "0",
+    " D",
+    " mm",
+    "x",
+    "#",
+    "eye right 2026-03-01\n  refraction -2.00 / -1.00 x 90\n",
+    "eye left\n  refraction +1.00\n",
+    "  expect spherical-equivalent -1.75 D\n",
+    "2025-12-31",
+    "frame\n  vertex 10 mm\n",
+    "  age 70\n",
+    "$",
+    "eye",
+];
+
+fn summary(e: &Evaluation) -> Vec<(String, String, (usize, usize))> {
+    e.derived
+        .iter()
+        .map(|d| (d.key.clone(), d.text.clone(), (d.span.start, d.span.end)))
+        .collect()
+}
+
+fn floor(s: &str, mut at: usize) -> usize {
+    at = at.min(s.len());
+    while !s.is_char_boundary(at) {
+        at -= 1;
+    }
+    at
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(256))]
+    #[test]
+    fn incremental_equals_full(
+        file in any::<prop::sample::Index>(),
+        edits in prop::collection::vec(
+            (any::<prop::sample::Index>(), 0usize..30, prop::collection::vec(0..PIECES.len(), 0..3)),
+            1..5,
+        ),
+    ) {
+        let files = files();
+        let mut text = files[file.index(files.len())].clone();
+        let mut parsed = parse(&text);
+        let mut eval = evaluate_incremental(&parsed, None);
+        for (at, len, pieces) in edits {
+            let start = floor(&text, at.index(text.len() + 1));
+            let end = floor(&text, start + len);
+            let insert: String = pieces.iter().map(|&i| PIECES[i]).collect();
+            parsed = reparse(&parsed, start..end, &insert);
+            text.replace_range(start..end, &insert);
+            eval = evaluate_incremental(&parsed, Some(eval));
+            let full = evaluate(&parse(&text));
+            prop_assert_eq!(summary(&eval), summary(&full), "values of {:?}", text);
+            prop_assert_eq!(&eval.diagnostics, &full.diagnostics, "diagnostics of {:?}", text);
+            prop_assert_eq!(&eval.case, &full.case);
+        }
+    }
+}
+
+#[test]
+fn an_edit_in_one_visit_reuses_the_others_and_moves_their_spans() {
+    let text = visits();
+    let parsed = parse(&text);
+    let first = evaluate_incremental(&parsed, None);
+    // Insert a blank line before the first eye block: every eye block moves.
+    let at = text.find("\neye").expect("an eye block");
+    let parsed = reparse(&parsed, at..at, "\n");
+    let again = evaluate_incremental(&parsed, Some(first.clone()));
+    let full = evaluate(&parsed);
+    assert_eq!(summary(&again), summary(&full));
+    assert_eq!(again.diagnostics, full.diagnostics);
+    assert_ne!(summary(&again), summary(&first), "spans moved by one byte");
+}

@@ -1,0 +1,127 @@
+//! `reparse` (re-reading only the lines an edit touches) must give exactly what
+//! `parse` gives for the edited text: same lines, blocks and errors, over random
+//! edits of the fixture files, chained so that each edit starts from a re-parse.
+
+use parax_syntax::{parse, reparse, Parsed};
+use proptest::prelude::*;
+use std::path::Path;
+
+fn fixtures() -> Vec<String> {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("../..");
+    let mut out = Vec::new();
+    for dir in [
+        "tests/fixtures/parse/valid",
+        "tests/fixtures/parse/invalid",
+        "examples",
+    ] {
+        let mut paths: Vec<_> = std::fs::read_dir(root.join(dir))
+            .expect("fixture dir")
+            .map(|e| e.expect("entry").path())
+            .filter(|p| p.extension().is_some_and(|x| x == "parax"))
+            .collect();
+        paths.sort();
+        for p in paths {
+            out.push(std::fs::read_to_string(p).expect("fixture"));
+        }
+    }
+    assert!(out.len() >= 20, "fixtures found: {}", out.len());
+    out
+}
+
+/// Pieces of text an edit inserts: line structure (breaks, indentation, headers
+/// at column 0), tokens, and things the grammar rejects.
+const PIECES: &[&str] = &[
+    "",
+    "\n",
+    "\r\n",
+    "  ",
+    "\t",
+    "eye right\n",
+    "eye left 2026-01-02",
+    "system \"s\"\n  lens L1 +5 D\n",
+    "  refraction -1.25 / -0.50 x 90 @ 12 mm\n",
+    "  add +2.00",
+    "refraction -2",
+    "# note",
+    "\"",
+    "x",
+    "°",
+    "Δ",
+    "5",
+    "-",
+    ".",
+    "$",
+    "eyes right",
+    "case \"Zoë\"",
+    "  expect spherical-equivalent -1.50 D ± 0.01",
+];
+
+fn assert_same(got: &Parsed, want: &Parsed) {
+    assert_eq!(got.source, want.source);
+    assert_eq!(got.lines, want.lines, "lines of {:?}", want.source);
+    assert_eq!(got.blocks, want.blocks, "blocks of {:?}", want.source);
+    assert_eq!(got.errors, want.errors, "errors of {:?}", want.source);
+    assert_eq!(got.index.line_count(), want.index.line_count());
+}
+
+/// Snap a byte offset down to a character boundary.
+fn floor(s: &str, mut at: usize) -> usize {
+    at = at.min(s.len());
+    while !s.is_char_boundary(at) {
+        at -= 1;
+    }
+    at
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(512))]
+    #[test]
+    fn reparse_equals_parse(
+        file in any::<prop::sample::Index>(),
+        edits in prop::collection::vec(
+            (any::<prop::sample::Index>(), 0usize..40, prop::collection::vec(0..PIECES.len(), 0..3)),
+            1..4,
+        ),
+    ) {
+        let files = fixtures();
+        let mut text = files[file.index(files.len())].clone();
+        let mut parsed = parse(&text);
+        for (at, len, pieces) in edits {
+            let start = floor(&text, at.index(text.len() + 1));
+            let end = floor(&text, start + len);
+            let insert: String = pieces.iter().map(|&i| PIECES[i]).collect();
+            parsed = reparse(&parsed, start..end, &insert);
+            text.replace_range(start..end, &insert);
+            assert_same(&parsed, &parse(&text));
+        }
+    }
+}
+
+#[test]
+fn an_edit_that_moves_a_header_regroups_blocks() {
+    let src = "eye right\n  add +1.00\neye left\n  add +2.00\n";
+    let p = parse(src);
+    // Indent the second header: it becomes a statement of the first block.
+    let r = reparse(&p, 22..22, "  ");
+    assert_same(
+        &r,
+        &parse("eye right\n  add +1.00\n  eye left\n  add +2.00\n"),
+    );
+    assert_eq!(r.blocks.len(), 1);
+    // A statement before any block, then a header typed above it.
+    let p = parse("  add +1.00\n");
+    assert_eq!(p.errors.len(), 1);
+    let r = reparse(&p, 0..0, "eye right\n");
+    assert!(r.errors.is_empty(), "{:?}", r.errors);
+    assert_same(&r, &parse("eye right\n  add +1.00\n"));
+}
+
+#[test]
+fn a_bad_range_gets_a_full_parse() {
+    let p = parse("case \"Zoë\"\n");
+    // Inside the `ë`, reversed, past the end: the text stays, parsed in full.
+    for (start, end) in [(8, 9), (3, 1), (5, 99)] {
+        let got = reparse(&p, start..end, "x");
+        assert_same(&got, &p);
+    }
+}
