@@ -30,12 +30,89 @@ fn incomplete(c: &ContactLens, what: &str, diags: &mut Vec<Diagnostic>) {
     );
 }
 
+/// The total diameter against the usual range for the lens type: a plausibility
+/// check only (scleral and special designs are not judged).
+fn diameter(c: &ContactLens, rigid: bool, diags: &mut Vec<Diagnostic>) {
+    let Some(d) = &c.diameter else { return };
+    let (kind, (lo, hi)) = if rigid {
+        ("rigid corneal", contact::RIGID_DIAMETER)
+    } else {
+        ("soft", contact::SOFT_DIAMETER)
+    };
+    if d.value < lo - 1e-9 || d.value > hi + 1e-9 {
+        diags.push(
+            Diagnostic::new(
+                codes::CONTACT_DIAMETER,
+                Severity::Info,
+                d.span,
+                format!(
+                    "{:.1} mm is outside the usual {:.1} to {:.1} mm of a {kind} lens",
+                    d.value * 1000.0,
+                    lo * 1000.0,
+                    hi * 1000.0
+                ),
+            )
+            .hint("a plausibility check only; check the lens type and the figure [CP]")
+            .caution(src::CAUTION_CONTACT),
+        );
+    }
+}
+
+/// The ordered `power` against the power computed: the largest difference in
+/// any meridian, flagged from 0.25 D.
+fn ordered_power(
+    c: &ContactLens,
+    computed: &SphCyl,
+    what: &str,
+    out: &mut Out<'_>,
+    diags: &mut Vec<Diagnostic>,
+) {
+    let Some(p) = &c.power else { return };
+    let ordered = SphCyl::new(p.value.sphere, p.value.cylinder, p.value.axis);
+    let diff = contact::largest_meridian_difference(&ordered, computed);
+    out.push(
+        "power-difference",
+        "largest difference in any meridian between the power ordered and the power computed",
+        V::Power { dioptres: diff },
+        p.span,
+        "largest |eigenvalue| of F_ordered − F_computed (power matrices)",
+        format!(
+            "ordered {}, {what} {} → {}",
+            sphcyl(&ordered).display(),
+            sphcyl(computed).display(),
+            n4(diff)
+        ),
+        src::CONTACT_ORDER,
+    )
+    .caution = Some(src::CAUTION_CONTACT);
+    if diff >= contact::ORDER_DIFFERS_FROM - 1e-9 {
+        diags.push(
+            Diagnostic::new(
+                codes::CONTACT_POWER_DIFFERS,
+                Severity::Warning,
+                p.span,
+                format!(
+                    "the power ordered differs from {what} {} by up to {diff:.2} D",
+                    sphcyl(computed).display()
+                ),
+            )
+            .hint("check the refraction, its vertex distance and the base curve against the order")
+            .caution(src::CAUTION_CONTACT),
+        );
+    }
+}
+
 pub(super) fn compute(
     case: &Case,
     c: &ContactLens,
     out: &mut Out<'_>,
     diags: &mut Vec<Diagnostic>,
 ) {
+    let rigid = match &c.kind {
+        Some(k) => k.value == "rigid",
+        None => c.base_curve.is_some(),
+    };
+    diameter(c, rigid, diags);
     let Some(eye) = current_eye(case, c.side) else {
         return incomplete(
             c,
@@ -70,10 +147,6 @@ pub(super) fn compute(
         src::VERGENCE,
     )
     .caution = Some(src::CAUTION_CONTACT);
-    let rigid = match &c.kind {
-        Some(k) => k.value == "rigid",
-        None => c.base_curve.is_some(),
-    };
     if !rigid {
         let toric = contact::soft_is_toric(&corneal);
         out.push(
@@ -119,6 +192,18 @@ pub(super) fn compute(
             src::CONTACT_RULES,
         )
         .caution = Some(src::CAUTION_CONTACT);
+        let computed = if toric {
+            corneal
+        } else {
+            SphCyl::new(corneal.spherical_equivalent(), 0.0, 180.0)
+        };
+        ordered_power(
+            c,
+            &computed,
+            "the soft lens suggested (unrounded)",
+            out,
+            diags,
+        );
         return;
     }
     let Some(k) = &eye.keratometry else {
@@ -172,6 +257,13 @@ pub(super) fn compute(
         src::CONTACT_RULES,
     )
     .caution = Some(src::CAUTION_CONTACT);
+    ordered_power(
+        c,
+        &SphCyl::new(p, 0.0, 180.0),
+        "the rigid lens power (unrounded)",
+        out,
+        diags,
+    );
     let pr = round_to_step(p, 0.25);
     out.push(
         "rigid-power-rounded",

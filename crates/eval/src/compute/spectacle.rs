@@ -144,19 +144,45 @@ struct Form {
     f1: f64,
     index: f64,
     strongest: f64,
+    /// Semi-aperture used, metres.
+    y: f64,
 }
 
-fn form(l: &SpectacleLens) -> Option<Form> {
+/// The refractive index of a lens: the recorded `index`, else its `material`'s
+/// index from the table.
+fn lens_index(l: &SpectacleLens) -> Option<f64> {
+    l.index.as_ref().map(|i| i.value).or_else(|| {
+        l.material
+            .as_ref()
+            .and_then(|m| lens_form::material(&m.value))
+            .map(|m| m.index)
+    })
+}
+
+/// Usual minimum (minus centre, plus edge) thickness: the material's row of the
+/// table when it names one, else by index.
+fn minimums(l: &SpectacleLens, index: f64) -> (f64, f64) {
+    match l
+        .material
+        .as_ref()
+        .and_then(|m| lens_form::material(&m.value))
+    {
+        Some(m) => (m.min_centre, m.min_edge),
+        None => material_minimums(index),
+    }
+}
+
+/// Thickness at semi-aperture `y` (metres).
+fn form_at(l: &SpectacleLens, y: f64) -> Option<Form> {
     let rx = power(l)?;
-    let index = l.index.as_ref()?.value;
+    let index = lens_index(l)?;
     let f1 = l.base_curve.as_ref()?.value;
-    let y = l.blank_diameter.as_ref()?.value / 2.0;
     let strongest = rx
         .principal_meridians()
         .into_iter()
         .map(|m| m.power)
         .max_by(|a, b| a.abs().total_cmp(&b.abs()))?;
-    let (min_c, min_e) = material_minimums(index);
+    let (min_c, min_e) = minimums(l, index);
     let min_c = l.centre_thickness.as_ref().map_or(min_c, |t| t.value);
     let min_e = l.edge_thickness.as_ref().map_or(min_e, |t| t.value);
     let t = lens_form::thickness(strongest, f1, index, y, min_c, min_e)?;
@@ -166,7 +192,70 @@ fn form(l: &SpectacleLens) -> Option<Form> {
         f1,
         index,
         strongest,
+        y,
     })
+}
+
+fn form(l: &SpectacleLens) -> Option<Form> {
+    form_at(l, l.blank_diameter.as_ref()?.value / 2.0)
+}
+
+/// The edged lens in the frame: decentration from the boxed centre, the effective
+/// diameter used and how it was found.
+struct Edged {
+    horizontal: f64,
+    vertical: f64,
+    total: f64,
+    effective_diameter: f64,
+    ed_note: String,
+    span: parax_syntax::Span,
+}
+
+fn edged(case: &Case, l: &SpectacleLens) -> Option<Edged> {
+    let f = first_frame(case)?;
+    let boxed = f.boxed_lens_size.as_ref()?;
+    let (a, b) = boxed.value;
+    let dbl = f.distance_between_lenses.as_ref()?.value;
+    // Where the optical centres are: the frame's centre distance, else at the pupils.
+    let half_cd = match &f.centre_distance {
+        Some(cd) => cd.value / 2.0,
+        None => current_eye(case, l.side)?.pd.as_ref()?.value,
+    };
+    let horizontal = (a + dbl) / 2.0 - half_cd;
+    let vertical = oc_height(f).map_or(0.0, |(h, _)| h - b / 2.0);
+    let total = lens_form::decentration(a, dbl, 2.0 * half_cd, vertical);
+    let (effective_diameter, ed_note) = match &f.effective_diameter {
+        Some(ed) => (ed.value, format!("ED {} mm", n4(ed.value * 1000.0))),
+        None => (
+            a.hypot(b),
+            format!(
+                "ED not recorded: the box diagonal √({}² + {}²) = {} mm, an upper bound",
+                n4(a * 1000.0),
+                n4(b * 1000.0),
+                n4(a.hypot(b) * 1000.0)
+            ),
+        ),
+    };
+    Some(Edged {
+        horizontal,
+        vertical,
+        total,
+        effective_diameter,
+        ed_note,
+        span: boxed.span,
+    })
+}
+
+/// Recommended height of the optical centre above the lowest point of the rim:
+/// the fitting height lowered by the optical-centre drop for the tilt. Metres,
+/// with the drop used.
+fn oc_height(f: &Frame) -> Option<(f64, f64)> {
+    let h = f.fitting_height.as_ref()?.value;
+    let drop = f
+        .pantoscopic_tilt
+        .as_ref()
+        .map_or(0.0, |t| tilt::optical_centre_drop(t.value));
+    Some((h - drop, drop))
 }
 
 fn magnification(case: &Case, l: &SpectacleLens) -> Option<(f64, String)> {
@@ -198,12 +287,15 @@ pub(super) fn compute(
     diags: &mut Vec<Diagnostic>,
 ) {
     let frame = first_frame(case);
-    let index = l.index.as_ref().map_or(DEFAULT_INDEX, |i| i.value);
+    let index = lens_index(l).unwrap_or(DEFAULT_INDEX);
     let index_note = if l.index.is_some() {
         format!("n = {index}")
+    } else if lens_index(l).is_some() {
+        format!("n = {index} (from the material)")
     } else {
         format!("n = {index} (not recorded; assumed)")
     };
+    material(l, diags);
     let pspan = l.power.as_ref().map_or(l.span, |p| p.span);
     if let (Some(rx), Some(f)) = (power(l), frame) {
         let t = tilt_of(f);
@@ -335,6 +427,7 @@ pub(super) fn compute(
         }
     }
     thickness(l, out, diags);
+    edged_thickness(case, l, out, diags);
     if let Some((sm, why)) = magnification(case, l) {
         out.push(
             "magnification",
@@ -349,9 +442,140 @@ pub(super) fn compute(
     verification(l, out, diags);
 }
 
+/// The material line: an index from the table when no `index` is recorded; a
+/// note when the name is not in the table or disagrees with the recorded index.
+fn material(l: &SpectacleLens, diags: &mut Vec<Diagnostic>) {
+    let Some(m) = &l.material else { return };
+    match lens_form::material(&m.value) {
+        None => diags.push(
+            Diagnostic::new(
+                codes::MATERIAL,
+                Severity::Info,
+                m.span,
+                format!(
+                    "material \"{}\" is not in the table; record its `index`",
+                    m.value
+                ),
+            )
+            .hint(format!(
+                "the table knows {}",
+                lens_form::MATERIALS
+                    .iter()
+                    .map(|t| format!("\"{}\"", t.name))
+                    .collect::<Vec<_>>()
+                    .join(", ")
+            )),
+        ),
+        Some(t) => {
+            if let Some(i) = &l.index {
+                if (i.value - t.index).abs() > 0.01 {
+                    diags.push(
+                        Diagnostic::new(
+                            codes::MATERIAL,
+                            Severity::Warning,
+                            i.span,
+                            format!(
+                                "index {} does not match {} (n {}); the recorded index is used",
+                                i.value, t.name, t.index
+                            ),
+                        )
+                        .hint("check the material and index on the order")
+                        .caution(src::CAUTION_ORDER),
+                    );
+                }
+            }
+        }
+    }
+}
+
+/// Thickness of the lens edged to the frame shape: the semi-aperture is the
+/// distance to the farthest point (ED/2 + decentration); the minimum blank size
+/// is ED + 2 × decentration.
+fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+    let Some(e) = edged(case, l) else { return };
+    let why = format!(
+        "horizontal (A + DBL)/2 − centre distance/2 = {} mm, vertical OC height − B/2 = {} mm → {} mm",
+        n4(e.horizontal * 1000.0),
+        n4(e.vertical * 1000.0),
+        n4(e.total * 1000.0)
+    );
+    out.push(
+        "decentration",
+        "decentration of the optical centre from the boxed centre",
+        V::Length { metres: e.total },
+        e.span,
+        "dec = √(((A + DBL − CD)/2)² + (OC height − B/2)²)",
+        why,
+        src::BLANK_SIZE,
+    );
+    let mbs = lens_form::minimum_blank(e.effective_diameter, e.total);
+    out.push(
+        "minimum-blank",
+        "minimum blank size",
+        V::Length { metres: mbs },
+        e.span,
+        "MBS = ED + 2 × decentration",
+        format!(
+            "{}; {} + 2 × {} = {} mm (laboratories often add about 2 mm for edging)",
+            e.ed_note,
+            n4(e.effective_diameter * 1000.0),
+            n4(e.total * 1000.0),
+            n4(mbs * 1000.0)
+        ),
+        src::BLANK_SIZE,
+    );
+    if let Some(b) = &l.blank_diameter {
+        if b.value < mbs - 1e-9 {
+            diags.push(
+                Diagnostic::new(
+                    codes::BLANK_TOO_SMALL,
+                    Severity::Warning,
+                    b.span,
+                    format!(
+                        "a {:.1} mm blank is smaller than the {:.1} mm this frame shape and decentration need",
+                        b.value * 1000.0,
+                        mbs * 1000.0
+                    ),
+                )
+                .hint("order a larger blank, or check the boxed lens size, effective diameter and centre distance")
+                .caution(src::CAUTION_ORDER),
+            );
+        }
+    }
+    let y = lens_form::farthest_point(e.effective_diameter, e.total);
+    let Some(f) = form_at(l, y) else { return };
+    let why = format!(
+        "strongest meridian {} D, F1 {} D, n {}, farthest point ED/2 + dec = {} mm: F2 = Fv − F1/(1 − (t/n)F1); edge = centre + s_back − s_front → centre {} mm, edge {} mm",
+        n4(f.strongest),
+        n4(f.f1),
+        f.index,
+        n4(f.y * 1000.0),
+        n4(f.centre * 1000.0),
+        n4(f.edge * 1000.0)
+    );
+    out.push(
+        "edged-thickness-centre",
+        "centre thickness of the lens edged to the frame",
+        V::Length { metres: f.centre },
+        e.span,
+        "minus: centre = minimum; plus: centre = edge + s_front − s_back, at the farthest point",
+        why.clone(),
+        src::SAG,
+    );
+    out.push(
+        "edged-thickness-edge",
+        "edge thickness at the farthest point of the edged lens (strongest meridian)",
+        V::Length { metres: f.edge },
+        e.span,
+        "edge = centre + s_back − s_front at y = ED/2 + decentration",
+        why,
+        src::SAG,
+    );
+}
+
 fn thickness(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
     let Some(f) = form(l) else { return };
-    let y = l.blank_diameter.as_ref().map_or(0.0, |d| d.value / 2.0);
+    let y = f.y;
     let why = format!(
         "strongest meridian {} D, F1 {} D, n {}, y {} mm: F2 = Fv − F1/(1 − (t/n)F1); edge = centre + s_back − s_front with s = r − √(r² − y²) → centre {} mm, edge {} mm",
         n4(f.strongest),
@@ -380,7 +604,7 @@ fn thickness(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) 
         why,
         src::SAG,
     );
-    let (min_c, min_e) = material_minimums(f.index);
+    let (min_c, min_e) = minimums(l, f.index);
     let minus = f.edge > f.centre;
     if let Some(t) = &l.centre_thickness {
         if minus && t.value < min_c - 1e-9 {
@@ -575,6 +799,22 @@ pub(super) fn compute_frame(
             src::OC_DROP,
         );
     }
+    if let Some((h, drop)) = oc_height(f) {
+        out.push(
+            "oc-height",
+            "recommended optical-centre height above the lowest point of the rim",
+            V::Length { metres: h },
+            f.fitting_height.as_ref().map_or(f.span, |h| h.span),
+            "OC height = fitting height − optical-centre drop (0.5 mm per degree of pantoscopic tilt)",
+            format!(
+                "{} mm − {} mm = {} mm",
+                n4((h + drop) * 1000.0),
+                n4(drop * 1000.0),
+                n4(h * 1000.0)
+            ),
+            src::OC_HEIGHT,
+        );
+    }
     // Only the first frame carries the pair's values (lenses are fitted in it).
     if !first_frame(case).is_some_and(|ff| std::ptr::eq(ff, f)) {
         return;
@@ -583,6 +823,7 @@ pub(super) fn compute_frame(
     let (Some(r), Some(l)) = (lens(Side::Right), lens(Side::Left)) else {
         return;
     };
+    mounted_pair(case, f, r, l, out, diags);
     let (pr, pl) = (prisms(case, r), prisms(case, l));
     if let (Some((a, _)), Some((b, _))) = (&pr.reading, &pl.reading) {
         let imb = prism::vertical_imbalance(a, b);
@@ -671,5 +912,170 @@ pub(super) fn compute_frame(
             ),
             src::ANISEIKONIA,
         );
+    }
+}
+
+/// Prism at a pupil that the received lens adds beyond the order: Prentice's rule
+/// with the measured power at the decentration (centre distance / 2 − PD), plus
+/// the measured prism at the reference point minus the prism ordered.
+fn unwanted_prism(case: &Case, f: &Frame, l: &SpectacleLens) -> Option<(Prism, SphCyl)> {
+    let m = l.measured.as_ref()?;
+    let measured = SphCyl::new(m.value.sphere, m.value.cylinder, m.value.axis);
+    let c = nasal_offset(case, f, l)?;
+    let mut p = prentice(&measured, side_eye(l.side), c, 0.0);
+    if let Some(mp) = &l.measured_prism {
+        let (h, v) = components(&mp.value);
+        p.base_in += h;
+        p.base_up += v;
+    }
+    if let Some(op) = &l.prism {
+        let (h, v) = components(&op.value);
+        p.base_in -= h;
+        p.base_up -= v;
+    }
+    Some((p, measured))
+}
+
+/// The received pair as mounted, against ANSI Z80.1-2015: vertical imbalance
+/// (0.33Δ, up to 3.375 D in the vertical meridian) and horizontal imbalance
+/// (0.67Δ, up to 2.75 D in the horizontal meridian; above it the centre distance
+/// within ±2.5 mm of the PDs [M]).
+fn mounted_pair(
+    case: &Case,
+    f: &Frame,
+    r: &SpectacleLens,
+    l: &SpectacleLens,
+    out: &mut Out<'_>,
+    diags: &mut Vec<Diagnostic>,
+) {
+    let (Some((pr, mr)), Some((pl, ml))) = (unwanted_prism(case, f, r), unwanted_prism(case, f, l))
+    else {
+        return;
+    };
+    let span = f.centre_distance.as_ref().map_or(f.span, |d| d.span);
+    let vertical = prism::vertical_imbalance(&pr, &pl);
+    let horizontal = prism::horizontal_net(&pr, &pl);
+    let why = |what: &str, a: f64, b: f64, total: f64| {
+        format!(
+            "measured right {}, left {} at the pupils (centre distance / 2 − PD): {what} right {a:+.4}Δ, left {b:+.4}Δ → {}Δ",
+            sphcyl(&mr).display(),
+            sphcyl(&ml).display(),
+            n4(total)
+        )
+    };
+    out.push(
+        "mounted-vertical-imbalance",
+        "vertical prism imbalance of the received pair at the pupils",
+        V::Prism {
+            dioptres: vertical,
+            base: String::new(),
+        },
+        span,
+        "|P_v(right) − P_v(left)|, P = −F_measured·c plus measured − ordered prism",
+        why("base up +", pr.base_up, pl.base_up, vertical),
+        src::MOUNTED_PAIR,
+    );
+    out.push(
+        "mounted-horizontal-imbalance",
+        "net horizontal prism of the received pair at the pupils",
+        self::horizontal(horizontal),
+        span,
+        "P_h(right) + P_h(left), base in +, P = −F_measured·c plus measured − ordered prism",
+        why("base in +", pr.base_in, pl.base_in, horizontal),
+        src::MOUNTED_PAIR,
+    );
+    let checks = [
+        (
+            "check-mounted-vertical",
+            "vertical imbalance",
+            true,
+            vertical,
+            [mr.meridian_power(90.0), ml.meridian_power(90.0)],
+            verify::VERTICAL_IMBALANCE_UP_TO,
+        ),
+        (
+            "check-mounted-horizontal",
+            "horizontal imbalance",
+            false,
+            horizontal.abs(),
+            [mr.meridian_power(180.0), ml.meridian_power(180.0)],
+            verify::HORIZONTAL_IMBALANCE_UP_TO,
+        ),
+    ];
+    for (name, what, is_vertical, got, powers, up_to) in checks {
+        let strongest = powers[0].abs().max(powers[1].abs());
+        let (pass, band, detail) = match verify::mounted_imbalance_tolerance(is_vertical, powers) {
+            Some(tol) => (
+                Some(got <= tol + 1e-9),
+                format!("0 to {tol:.2}Δ"),
+                format!(
+                    "{what} {}Δ; strongest power in the meridian {} D ≤ {up_to} D, so the band is 0 to {tol:.2}Δ",
+                    n4(got),
+                    n4(strongest)
+                ),
+            ),
+            None if !is_vertical => {
+                // Above 2.75 D the standard checks the optical-centre positions
+                // instead: centre distance within ±2.5 mm of the ordered PD [M].
+                let Some(cd) = f.centre_distance.as_ref().map(|c| c.value) else {
+                    continue;
+                };
+                let pds = [r, l]
+                    .iter()
+                    .map(|x| current_eye(case, x.side).and_then(|e| e.pd.as_ref().map(|p| p.value)))
+                    .sum::<Option<f64>>();
+                let Some(pd) = pds else { continue };
+                let tol = verify::CENTRE_DISTANCE_TOLERANCE;
+                (
+                    Some((cd - pd).abs() <= tol + 1e-9),
+                    format!("{:.1} to {:.1} mm", (pd - tol) * 1000.0, (pd + tol) * 1000.0),
+                    format!(
+                        "strongest power in the horizontal meridian {} D > {up_to} D: centre distance {} mm against PD {} mm ± 2.5 mm [M]",
+                        n4(strongest),
+                        n4(cd * 1000.0),
+                        n4(pd * 1000.0)
+                    ),
+                )
+            }
+            None => (
+                None,
+                String::new(),
+                format!(
+                    "strongest power in the vertical meridian {} D > {up_to} D: the standard then limits the difference in optical-centre heights, which is not recorded here",
+                    n4(strongest)
+                ),
+            ),
+        };
+        out.push(
+            name,
+            &format!("mounted pair {what} within {}", verify::STANDARD),
+            V::Text {
+                text: match pass {
+                    Some(true) => "pass",
+                    Some(false) => "fail",
+                    None => "not applicable",
+                }
+                .into(),
+            },
+            span,
+            "ANSI Z80.1-2015 mounted pair: vertical ≤ 0.33Δ (≤ 3.375 D), horizontal ≤ 0.67Δ (≤ 2.75 D)",
+            detail,
+            src::MOUNTED_PAIR,
+        );
+        if pass == Some(false) {
+            diags.push(
+                Diagnostic::new(
+                    codes::MOUNTED_IMBALANCE,
+                    Severity::Warning,
+                    span,
+                    format!(
+                        "the received pair's {what} is outside {band} ({})",
+                        verify::STANDARD
+                    ),
+                )
+                .hint("re-measure the optical centres and the PDs; return the pair to the laboratory if confirmed")
+                .caution(src::CAUTION_ORDER),
+            );
+        }
     }
 }
