@@ -411,17 +411,7 @@ fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str
                 let label = r.word("a lens label", form);
                 let power = r.quantity(&u::LENS_POWER, form);
                 if let (Some((label, lspan)), Some(power)) = (label, power) {
-                    if s.elements
-                        .iter()
-                        .any(|e| element_label(&e.value) == Some(label))
-                    {
-                        r.diags.push(Diagnostic::new(
-                            codes::SYSTEM_LAYOUT,
-                            Severity::Error,
-                            lspan,
-                            format!("the label `{label}` is already used in this system"),
-                        ));
-                    }
+                    check_label_unused(r, s, label, lspan);
                     s.elements.push(At {
                         value: SystemElement::Lens {
                             label: label.to_owned(),
@@ -442,17 +432,7 @@ fn lower_statement(r: &mut Reader<'_>, target: &mut Target, kw: &str, form: &str
                 if let (Some((label, lspan)), Some(radius), Some(index_after)) =
                     (label, radius, index)
                 {
-                    if s.elements
-                        .iter()
-                        .any(|e| element_label(&e.value) == Some(label))
-                    {
-                        r.diags.push(Diagnostic::new(
-                            codes::SYSTEM_LAYOUT,
-                            Severity::Error,
-                            lspan,
-                            format!("the label `{label}` is already used in this system"),
-                        ));
-                    }
+                    check_label_unused(r, s, label, lspan);
                     s.elements.push(At {
                         value: SystemElement::Surface {
                             label: label.to_owned(),
@@ -542,6 +522,21 @@ fn read_prism(r: &mut Reader<'_>, form: &str) -> Option<PrismRx> {
         amount: amount?,
         base: base?.to_owned(),
     })
+}
+
+/// Report a lens or surface label that an earlier element of the system already uses.
+fn check_label_unused(r: &mut Reader<'_>, s: &System, label: &str, span: Span) {
+    if s.elements
+        .iter()
+        .any(|e| element_label(&e.value) == Some(label))
+    {
+        r.diags.push(Diagnostic::new(
+            codes::SYSTEM_LAYOUT,
+            Severity::Error,
+            span,
+            format!("the label `{label}` is already used in this system"),
+        ));
+    }
 }
 
 fn element_label(e: &SystemElement) -> Option<&str> {
