@@ -398,19 +398,8 @@ impl<'a> Reader<'a> {
                     break;
                 }
             }
-        } else if spec.dimension == Dimension::Length && spec.max > 0.0 {
-            // 78 mm for 7.8 mm: a slipped decimal point.
-            for k in [10.0, 0.1] {
-                if (spec.min..=spec.max).contains(&unit.to_base(value / k)) {
-                    d = d.hint(format!(
-                        "did you mean {} {}?",
-                        trim_float(value / k),
-                        unit.symbol()
-                    ));
-                    break;
-                }
-            }
         }
+        // 78 mm for 7.8 mm: a slipped decimal point.
         if d.hint.is_none() && spec.dimension == Dimension::Length {
             for k in [10.0, 0.1] {
                 if (spec.min..=spec.max).contains(&unit.to_base(value / k)) {

@@ -3,24 +3,10 @@
 //! snippets, against the check values of CAPABILITIES §§5-13. Each assertion names
 //! its source, provenance tag and tolerance.
 
-use parax_eval::{evaluate_source, DerivedValue as V, Evaluation};
+mod common;
 
-fn eval(src: &str) -> Evaluation {
-    evaluate_source(src).1
-}
-
-fn get<'a>(ev: &'a Evaluation, key: &str) -> &'a V {
-    &ev.derived
-        .iter()
-        .find(|d| d.key == key)
-        .unwrap_or_else(|| {
-            panic!(
-                "no {key}; have {:?}",
-                ev.derived.iter().map(|d| &d.key).collect::<Vec<_>>()
-            )
-        })
-        .value
-}
+use common::{close, eval, get};
+use parax_eval::{DerivedValue as V, Evaluation};
 
 fn num(ev: &Evaluation, key: &str) -> f64 {
     match get(ev, key) {
@@ -34,11 +20,6 @@ fn num(ev: &Evaluation, key: &str) -> f64 {
 
 fn codes(ev: &Evaluation) -> Vec<&str> {
     ev.diagnostics.iter().map(|d| d.code).collect()
-}
-
-#[track_caller]
-fn close(got: f64, want: f64, tol: f64) {
-    assert!((got - want).abs() <= tol, "got {got}, want {want} ± {tol}");
 }
 
 #[test]

@@ -2,36 +2,16 @@
 //! assertion names its source and provenance tag (CAPABILITIES.md tags: S read in
 //! the source, C computed from the published formula) and its tolerance.
 
-use parax_eval::{evaluate_source, DerivedValue as V, Evaluation};
+mod common;
 
-fn eval(src: &str) -> Evaluation {
-    let (_, ev) = evaluate_source(src);
-    ev
-}
-
-fn get<'a>(ev: &'a Evaluation, key: &str) -> &'a V {
-    &ev.derived
-        .iter()
-        .find(|d| d.key == key)
-        .unwrap_or_else(|| {
-            panic!(
-                "no {key}; have {:?}",
-                ev.derived.iter().map(|d| &d.key).collect::<Vec<_>>()
-            )
-        })
-        .value
-}
+use common::{close, eval, get};
+use parax_eval::{DerivedValue as V, Evaluation};
 
 fn power(ev: &Evaluation, key: &str) -> f64 {
     match get(ev, key) {
         V::Power { dioptres } => *dioptres,
         other => panic!("{key} is {other:?}"),
     }
-}
-
-#[track_caller]
-fn close(got: f64, want: f64, tol: f64) {
-    assert!((got - want).abs() <= tol, "got {got}, want {want} ± {tol}");
 }
 
 #[test]
