@@ -47,7 +47,7 @@ pub const CAUTION_VERTEX: &str =
 fitted; verify it clinically before ordering.";
 
 source!(MARTIN, "S", "Martin's formula for tilted spherical lenses, S' = S(1 + sin²a/2n), C = S'·tan²a: Brooks & Borish, System for Ophthalmic Dispensing");
-source!(TILT_MATRIX, "M", "tilted thin spherocylinders by the power matrix: Harris, Optom Vis Sci 2002; Keating, Optom Vis Sci 1995 (reduces to Martin's formula for a sphere; agrees with Coddington's equations to O(sin⁴) for a tilt about one axis; with both tilts an oblique term of order sin p·sin f, about 0.1 D at 5.50 D, 10°/5°, is omitted)");
+source!(TILT_MATRIX, "C", "tilted thin spherocylinders: Martin's formula (Brooks & Borish) applied about the oblique axis of the one rotation equal to face form then pantoscopic tilt, F_t = (1 + sin²γ/2n)·A⁻ᵀ·F·A⁻¹; checked against real rays traced through the tilted lens (equal up to Martin's O(sin⁴γ) remainder, about 0.0015 D for 5.50 D at 10°/5°); the published spherocylinder forms (Harris, Optom Vis Sci 2002; Keating, Optom Vis Sci 1995) not yet read [M]");
 source!(OC_DROP, "CP", "lower the optical centre about 0.5 mm per degree of pantoscopic tilt (common practice, no source)");
 source!(PRENTICE, "S", "Prentice's rule P = c·F, vector form with the dioptric power matrix: Keating, Geometric, Physical, and Visual Optics, 2nd ed. 2002");
 source!(PRISM_TOLERANCE, "CP", "about 1Δ vertical and 3Δ horizontal before symptoms; slab-off worth considering above about 1.5Δ vertical at the reading point (Optician CPD article; common practice)");

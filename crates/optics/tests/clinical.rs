@@ -33,19 +33,13 @@ fn martin_formula_checks() {
 #[test]
 fn matrix_tilt_reduces_to_martin() {
     // [C] CAPABILITIES §6: pantoscopic tilt of a sphere, matrix form = Martin (plus-cyl axis 180); tol 1e-4
-    let t = Tilt {
-        pantoscopic_deg: 10.0,
-        face_form_deg: 0.0,
-    };
+    let t = Tilt::new(10.0, 0.0, Eye::Right);
     let w = tilt::as_worn(&SphCyl::new(15.0, 0.0, 180.0), t, 1.5).plus_cyl();
     assert_close!(w.sphere, 15.1508, 1e-4);
     assert_close!(w.cylinder, 0.4711, 1e-4);
     assert_close!(w.axis, 180.0, 1e-6);
     // [C] CAPABILITIES §6: -6.00, 20° wrap, n 1.586 -> -6.2213 -0.8242 x 90; tol 1e-4
-    let t = Tilt {
-        pantoscopic_deg: 0.0,
-        face_form_deg: 20.0,
-    };
+    let t = Tilt::new(0.0, 20.0, Eye::Left);
     let w = tilt::as_worn(&SphCyl::new(-6.0, 0.0, 180.0), t, 1.586).minus_cyl();
     assert_close!(w.sphere, -6.2213, 1e-4);
     assert_close!(w.cylinder, -0.8242, 1e-4);
@@ -55,10 +49,7 @@ fn matrix_tilt_reduces_to_martin() {
 #[test]
 fn compensated_order_inverts_tilt() {
     // [C] exact inverse: as_worn(compensated(rx)) = rx for a spherocylinder; tol 1e-9
-    let t = Tilt {
-        pantoscopic_deg: 12.0,
-        face_form_deg: 6.0,
-    };
+    let t = Tilt::new(12.0, 6.0, Eye::Right);
     let rx = SphCyl::new(-4.25, -1.5, 25.0);
     let order = tilt::compensated(&rx, t, 1.6);
     let back = tilt::as_worn(&order, t, 1.6);

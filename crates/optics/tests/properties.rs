@@ -101,16 +101,19 @@ proptest! {
         p in -10.0f64..25.0,
         f in -5.0f64..35.0,
         n in 1.45f64..1.8,
+        right in proptest::bool::ANY,
     ) {
+        use parax_optics::prism::Eye;
         use parax_optics::tilt::{as_worn, compensated, martin, Tilt};
-        let t = Tilt { pantoscopic_deg: p, face_form_deg: f };
+        let eye = if right { Eye::Right } else { Eye::Left };
+        let t = Tilt::new(p, f, eye);
         let back = as_worn(&compensated(&rx, t, n), t, n).power_vector();
         let want = rx.power_vector();
         prop_assert!((back.m - want.m).abs() < 1e-9);
         prop_assert!((back.j0 - want.j0).abs() < 1e-9);
         prop_assert!((back.j45 - want.j45).abs() < 1e-9);
         let s = rx.sphere;
-        let worn = as_worn(&SphCyl::new(s, 0.0, 180.0), Tilt { pantoscopic_deg: p, face_form_deg: 0.0 }, n);
+        let worn = as_worn(&SphCyl::new(s, 0.0, 180.0), Tilt::new(p, 0.0, eye), n);
         let (ms, mc) = martin(s, p, n);
         // Martin: power S' in the 180 meridian and S' + C in the 90 meridian.
         prop_assert!((worn.meridian_power(180.0) - ms).abs() < 1e-9);

@@ -40,11 +40,29 @@ fn power(l: &SpectacleLens) -> Option<SphCyl> {
         .map(|p| SphCyl::new(p.value.sphere, p.value.cylinder, p.value.axis))
 }
 
-fn tilt_of(f: &Frame) -> Tilt {
-    Tilt {
-        pantoscopic_deg: f.pantoscopic_tilt.as_ref().map_or(0.0, |t| t.value),
-        face_form_deg: f.face_form.as_ref().map_or(0.0, |t| t.value),
-    }
+/// The frame's tilt before the lens's eye (face form turns the two lenses in
+/// opposite senses).
+fn tilt_of(f: &Frame, side: Side) -> Tilt {
+    Tilt::new(
+        f.pantoscopic_tilt.as_ref().map_or(0.0, |t| t.value),
+        f.face_form.as_ref().map_or(0.0, |t| t.value),
+        side_eye(side),
+    )
+}
+
+/// "γ° about the axis at θ" with the twist when both tilts are present.
+fn oblique_note(t: &Tilt) -> String {
+    let o = t.oblique();
+    let twist = if o.twist_deg.abs() >= 5e-5 {
+        format!(", after a twist of {}° of the lens", n4(o.twist_deg))
+    } else {
+        String::new()
+    };
+    format!(
+        "one rotation of {}° about the axis at {}{twist}",
+        n4(o.angle_deg.abs()),
+        n4(o.axis_deg)
+    )
 }
 
 fn side_eye(s: Side) -> prism::Eye {
@@ -298,7 +316,7 @@ pub(super) fn compute(
     material(l, diags);
     let pspan = l.power.as_ref().map_or(l.span, |p| p.span);
     if let (Some(rx), Some(f)) = (power(l), frame) {
-        let t = tilt_of(f);
+        let t = tilt_of(f, l.side);
         if t.pantoscopic_deg != 0.0 || t.face_form_deg != 0.0 {
             let worn = tilt::as_worn(&rx, t, index);
             out.push(
@@ -306,12 +324,13 @@ pub(super) fn compute(
                 "power as worn (tilt)",
                 sphcyl(&worn),
                 pspan,
-                "F_t = (1 + sin²γ/2n)·Q·F·Q, Q = diag(1/cos face form, 1/cos pantoscopic); sphere: S(1 + sin²a/2n), C = S'·tan²a",
+                "F_t = (1 + sin²γ/2n)·A⁻ᵀ·F·A⁻¹, A the lens plane projected along the line of sight, cos γ = cos p·cos f; sphere: S(1 + sin²γ/2n), C = S'·tan²γ about the tilt axis",
                 format!(
-                    "{} tilted {}° pantoscopic, {}° face form, {index_note} → {}",
+                    "{} tilted {}° pantoscopic, {}° face form ({}), {index_note} → {}",
                     sphcyl(&rx).display(),
                     n4(t.pantoscopic_deg),
                     n4(t.face_form_deg),
+                    oblique_note(&t),
                     sphcyl(&worn).display()
                 ),
                 if rx.cylinder.abs() < 1e-9 && (t.pantoscopic_deg == 0.0 || t.face_form_deg == 0.0) {
@@ -357,12 +376,13 @@ pub(super) fn compute(
                     ));
                 }
             }
-            let t = tilt_of(f);
+            let t = tilt_of(f, l.side);
             let order = tilt::compensated(&target, t, index);
             steps.push(format!(
-                "tilt {}° / {}°, {index_note}: inverse of the as-worn mapping → {}",
+                "tilt {}° / {}° ({}), {index_note}: inverse of the as-worn mapping → {}",
                 n4(t.pantoscopic_deg),
                 n4(t.face_form_deg),
+                oblique_note(&t),
                 sphcyl(&order).display()
             ));
             out.push(
@@ -370,7 +390,7 @@ pub(super) fn compute(
                 "power to order (vertex and tilt compensated)",
                 sphcyl(&order),
                 l.span,
-                "F = (Q⁻¹·F_rx·Q⁻¹)/(1 + sin²γ/2n), F_rx moved to the frame's vertex by F' = F/(1 − d·F)",
+                "F = Aᵀ·F_rx·A/(1 + sin²γ/2n), F_rx moved to the frame's vertex by F' = F/(1 − d·F)",
                 steps.join("; "),
                 src::TILT_MATRIX,
             )
