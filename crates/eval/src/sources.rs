@@ -47,14 +47,14 @@ pub const CAUTION_VERTEX: &str =
 fitted; verify it clinically before ordering.";
 
 source!(MARTIN, "S", "Martin's formula for tilted spherical lenses, S' = S(1 + sin²a/2n), C = S'·tan²a: Brooks & Borish, System for Ophthalmic Dispensing");
-source!(TILT_MATRIX, "C", "tilted thin spherocylinders: Martin's formula (Brooks & Borish) applied about the oblique axis of the one rotation equal to face form then pantoscopic tilt, F_t = (1 + sin²γ/2n)·A⁻ᵀ·F·A⁻¹; checked against real rays traced through the tilted lens (equal up to Martin's O(sin⁴γ) remainder, about 0.0015 D for 5.50 D at 10°/5°); the published spherocylinder forms (Harris, Optom Vis Sci 2002; Keating, Optom Vis Sci 1995) not yet read [M]");
+source!(TILT_MATRIX, "C", "tilted thin spherocylinders: Martin's formula (Brooks & Borish) applied about the oblique axis of the one rotation equal to face form then pantoscopic tilt, F_t = (1 + sin²γ/2n)·A⁻ᵀ·F·A⁻¹; verified against real rays traced through the tilted lens (equal up to Martin's O(sin⁴γ) remainder, about 0.0015 D for 5.50 D at 10°/5°); the published spherocylinder forms (Harris, Optom Vis Sci 2002; Keating, Optom Vis Sci 1995) are cited from memory and not yet compared");
 source!(OC_DROP, "CP", "lower the optical centre about 0.5 mm per degree of pantoscopic tilt (common practice, no source)");
 source!(PRENTICE, "S", "Prentice's rule P = c·F, vector form with the dioptric power matrix: Keating, Geometric, Physical, and Visual Optics, 2nd ed. 2002");
 source!(PRISM_TOLERANCE, "CP", "about 1Δ vertical and 3Δ horizontal before symptoms; slab-off worth considering above about 1.5Δ vertical at the reading point (Optician CPD article; common practice)");
 source!(SAG, "S", "exact sag s = r − √(r² − y²), edge = centre + s_back − s_front: J. Loomis, Univ. of Dayton course notes \"Sags and Edge Thickness\"");
 source!(BLANK_SIZE, "CP", "decentration from the boxed centre (boxed system, ISO 13666 terms) and minimum blank size = effective diameter + 2 × decentration (common practice, no source)");
 source!(MATERIAL_TABLE, "CP", "indices and minimum thicknesses of common lens materials as catalogues and laboratories quote them (common practice, no single source)");
-source!(MOUNTED_PAIR, "S", "ANSI Z80.1-2015, mounted pair: vertical imbalance 0.33Δ up to 3.375 D, horizontal 0.67Δ up to 2.75 D (quick reference guide); the ±2.5 mm centre-distance alternative above 2.75 D [M]");
+source!(MOUNTED_PAIR, "S", "ANSI Z80.1-2015, mounted pair: vertical imbalance 0.33Δ up to 3.375 D, horizontal 0.67Δ up to 2.75 D; above 2.75 D the centre distance within ±2.5 mm of the specified PD (quick reference guide of the standard)");
 source!(CONTACT_ORDER, "CP", "ordered power compared meridian by meridian with the computed power (power matrices); a difference of one 0.25 D step flagged (common practice)");
 source!(OC_HEIGHT, "CP", "optical centre set below the pupil by the optical-centre drop for the tilt, 0.5 mm per degree (common practice, no source)");
 source!(MATERIAL_MINIMUMS, "CP", "minimum thickness: minus centre 2.0 mm (CR-39) or 1.5 mm (high index), plus edge 1.0 mm (common practice, no source)");
@@ -82,7 +82,7 @@ over-refraction and follow-up belong to a licensed practitioner under local rule
 pub const CAUTION_MODEL: &str = "A schematic eye is a model, not the patient: refraction \
 predicted from axial length is an estimate for study, not a prescription.";
 
-source!(SRKT, "S", "SRK/T: Retzlaff, Sanders & Kraff, J Cataract Refract Surg 1990;16:333-340 (erratum p. 528); target terms with minus signs");
+source!(SRKT, "S", "SRK/T: Retzlaff, Sanders & Kraff, J Cataract Refract Surg 1990;16:333-340 (erratum p. 528); equations read as restated in full in an A-scan biometer operator's manual (every constant and the target-refraction signs as implemented), the 1990 paper itself not read");
 source!(IOL_VERGENCE, "M", "thin-lens vergence IOL formula P = n/(AL − ELP) − n/(n/(K + Z) − ELP), Z = R/(1 − V·R), n 1.336");
 
 /// Caution attached to every intraocular lens value.

@@ -26,9 +26,17 @@ pub struct SrkT {
     pub lopt: f64,
     /// Estimated postoperative anterior chamber depth, mm.
     pub acd: f64,
+    /// The corneal height `H = r − √(r² − W²/4)` is defined: the computed corneal
+    /// width `W` is at most twice the radius. When it is not (long eyes with steep
+    /// corneas) the published equations give no value; this crate then takes
+    /// `H = r` (the root set to zero) and the caller must say so.
+    pub corneal_height_defined: bool,
 }
 
-/// SRK/T's intermediate values from axial length `l` (mm), K (D) and A constant.
+/// SRK/T's intermediate values from axial length `l` (mm), K (D) and A constant:
+/// `LCOR = L` up to 24.2 mm, else `−3.446 + 1.716L − 0.0237L²`;
+/// `W = −5.41 + 0.58412·LCOR + 0.098K`; `H = r − √(r² − W²/4)`;
+/// `ACD = H + (0.62467A − 68.747) − 3.336`; `LOPT = L + 0.65696 − 0.02029L`.
 pub fn srkt_geometry(l: f64, k: f64, a: f64) -> SrkT {
     let lcor = if l <= 24.2 {
         l
@@ -37,14 +45,15 @@ pub fn srkt_geometry(l: f64, k: f64, a: f64) -> SrkT {
     };
     let cw = -5.41 + 0.58412 * lcor + 0.098 * k;
     let r = 337.5 / k;
-    let x = (r * r - cw * cw / 4.0).max(0.0);
-    let h = r - x.sqrt();
+    let x = r * r - cw * cw / 4.0;
+    let h = r - x.max(0.0).sqrt();
     let offset = (0.62467 * a - 68.747) - 3.336;
     let rethick = 0.65696 - 0.02029 * l;
     SrkT {
         r,
         lopt: l + rethick,
         acd: h + offset,
+        corneal_height_defined: x >= 0.0,
     }
 }
 

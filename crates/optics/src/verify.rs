@@ -150,7 +150,8 @@ pub const VERTICAL_IMBALANCE_UP_TO: f64 = 3.375;
 pub const HORIZONTAL_IMBALANCE_UP_TO: f64 = 2.75;
 /// ANSI Z80.1-2015: above [`HORIZONTAL_IMBALANCE_UP_TO`] the distance between the
 /// optical centres may differ from the ordered pupillary distance by this much,
-/// metres (quoted from memory, to be confirmed).
+/// metres: "≤ ±2.5 mm from specified distance interpupillary distance" in the
+/// quick reference guide of the standard (read).
 pub const CENTRE_DISTANCE_TOLERANCE: f64 = 0.0025;
 
 /// The mounted-pair imbalance tolerance for one direction: `Some(tolerance Δ)`

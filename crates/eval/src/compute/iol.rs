@@ -32,9 +32,16 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
     let l = al.value * 1000.0;
     let target = e.iol_target.as_ref().map_or(0.0, |t| t.value);
     let mut any = false;
+    let mut undefined_height = false;
     if let Some(a) = &e.iol_constant {
         any = true;
         let g = iol::srkt_geometry(l, mean_k, a.value);
+        undefined_height = !g.corneal_height_defined;
+        let height_note = if undefined_height {
+            "; the corneal width exceeds the corneal diameter, so SRK/T's corneal height is undefined and H = r is used (outside the published formula)"
+        } else {
+            ""
+        };
         out.push(
             "iol-acd-estimate",
             "SRK/T estimated postoperative anterior chamber depth",
@@ -44,7 +51,7 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
             a.span,
             "ACD = H + (0.62467·A − 68.747) − 3.336, H from corneal height (SRK/T)",
             format!(
-                "L {} mm, K {}, A {} → ACD {} mm",
+                "L {} mm, K {}, A {} → ACD {} mm{height_note}",
                 n4(l),
                 n4(mean_k),
                 a.value,
@@ -61,7 +68,7 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
             a.span,
             "SRK/T (Retzlaff, Sanders & Kraff 1990), V = 12 mm, target terms with minus signs",
             format!(
-                "L {} mm, mean K {}, A {}, target {} → {}",
+                "L {} mm, mean K {}, A {}, target {} → {}{height_note}",
                 n4(l),
                 n4(mean_k),
                 a.value,
@@ -111,7 +118,7 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
         diags.push(
             Diagnostic::new(
                 codes::IOL_CAUTION,
-                if after_surgery {
+                if after_surgery || undefined_height {
                     Severity::Warning
                 } else {
                     Severity::Info
@@ -119,6 +126,8 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
                 al.span,
                 if after_surgery {
                     "IOL power computed after corneal refractive surgery: these formulas are not valid without a validated adjustment"
+                } else if undefined_height {
+                    "SRK/T's corneal height is undefined for this axial length and K (computed corneal width above twice the radius): the SRK/T values lie outside the published formula"
                 } else {
                     "IOL power computed: an aid for the surgeon, not a lens choice"
                 },

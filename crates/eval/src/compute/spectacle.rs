@@ -959,7 +959,7 @@ fn unwanted_prism(case: &Case, f: &Frame, l: &SpectacleLens) -> Option<(Prism, S
 /// The received pair as mounted, against ANSI Z80.1-2015: vertical imbalance
 /// (0.33Δ, up to 3.375 D in the vertical meridian) and horizontal imbalance
 /// (0.67Δ, up to 2.75 D in the horizontal meridian; above it the centre distance
-/// within ±2.5 mm of the PDs [M]).
+/// within ±2.5 mm of the PDs [S: quick reference guide]).
 fn mounted_pair(
     case: &Case,
     f: &Frame,
@@ -1036,7 +1036,7 @@ fn mounted_pair(
             ),
             None if !is_vertical => {
                 // Above 2.75 D the standard checks the optical-centre positions
-                // instead: centre distance within ±2.5 mm of the ordered PD [M].
+                // instead: centre distance within ±2.5 mm of the ordered PD [S: quick reference guide of the standard].
                 let Some(cd) = f.centre_distance.as_ref().map(|c| c.value) else {
                     continue;
                 };
@@ -1050,7 +1050,7 @@ fn mounted_pair(
                     Some((cd - pd).abs() <= tol + 1e-9),
                     format!("{:.1} to {:.1} mm", (pd - tol) * 1000.0, (pd + tol) * 1000.0),
                     format!(
-                        "strongest power in the horizontal meridian {} D > {up_to} D: centre distance {} mm against PD {} mm ± 2.5 mm [M]",
+                        "strongest power in the horizontal meridian {} D > {up_to} D: centre distance {} mm against PD {} mm ± 2.5 mm",
                         n4(strongest),
                         n4(cd * 1000.0),
                         n4(pd * 1000.0)
