@@ -113,6 +113,16 @@ pub fn spectacle_magnification(
     (shape, power, shape * power)
 }
 
+/// Relative spectacle magnification in axial ametropia: the retinal image with a
+/// thin correcting lens of power `lens` (D) at `d_m` metres before the eye's first
+/// principal point, relative to the image of the standard emmetropic eye of the
+/// same power `eye_power` (D): `RSM = F_e / (F_e + F_s − d·F_s·F_e)`. Knapp's law:
+/// with the lens at the eye's anterior focal point (`d = 1/F_e`) the system's
+/// equivalent power is `F_e` again and `RSM = 1` for every lens.
+pub fn relative_spectacle_magnification_axial(eye_power: f64, lens: f64, d_m: f64) -> f64 {
+    eye_power / (eye_power + lens - d_m * lens * eye_power)
+}
+
 /// Distance from the spectacle vertex to the entrance pupil: vertex distance
 /// plus about 3 mm (Fannin & Grosvenor), metres.
 pub fn entrance_pupil_distance(vertex_m: f64) -> f64 {

@@ -149,6 +149,53 @@ pub fn evaluate(surfaces: &[EyeSurface]) -> EyeResult {
     }
 }
 
+/// The iris of Gullstrand's exact eye and of Le Grand's full theoretical eye lies
+/// at the front of the crystalline lens: surface index 2 of their tables.
+pub const IRIS_AT_LENS_FRONT: usize = 2;
+
+/// Entrance pupil of a surface table whose aperture stop (the iris) lies at the
+/// vertex of surface `stop`: the image of the stop formed by the surfaces before
+/// it, seen from the front. Traced backwards by paraxial vergences (a surface has
+/// the same power `(n' − n)/r` for light in either direction): from the stop, the
+/// reduced vergence `L = n/l` meets each surface, `L' = L + F`, and crosses each
+/// gap, `L ← L'/(1 − (d/n)·L')`. Returns the distance of the entrance pupil
+/// behind the corneal vertex (metres) and its magnification (product of `L/L'`),
+/// or `None` when `stop` is 0 or beyond the table or the image is at infinity.
+pub fn entrance_pupil(surfaces: &[EyeSurface], stop: usize) -> Option<(f64, f64)> {
+    if stop == 0 || stop >= surfaces.len() {
+        return None;
+    }
+    let index_before = |j: usize| {
+        if j == 0 {
+            1.0
+        } else {
+            surfaces[j - 1].index_after
+        }
+    };
+    // Backwards the positive direction is toward the front: the stop lies
+    // `distance_m` behind surface stop − 1, i.e. at l = −d.
+    let last = &surfaces[stop - 1];
+    let mut l_vergence = last.index_after / -last.distance_m;
+    let mut magnification = 1.0;
+    for j in (0..stop).rev() {
+        let s = &surfaces[j];
+        let power = (s.index_after - index_before(j)) / s.radius_m;
+        let after = l_vergence + power;
+        magnification *= l_vergence / after;
+        if j == 0 {
+            if after.abs() < 1e-12 {
+                return None;
+            }
+            // Image distance 1/L' in air, positive toward the front.
+            return Some((-1.0 / after, magnification));
+        }
+        let d = surfaces[j - 1].distance_m;
+        let n = index_before(j);
+        l_vergence = after / (1.0 - d / n * after);
+    }
+    None
+}
+
 /// Spectacle refraction at vertex distance `d` for ocular refraction `k`:
 /// `Fs = K/(1 + d·K)`.
 pub fn spectacle_refraction(k: f64, vertex_m: f64) -> f64 {

@@ -317,3 +317,77 @@ fn srkt_matches_the_published_equation_text() {
     // (Eyes above 24.2 mm exercise LC's coefficient 1.716 as the text gives it:
     // a transcription with 1.715 would differ here by about 0.02 D at L 26.)
 }
+
+#[test]
+fn entrance_pupils_of_the_schematic_eyes() {
+    // [C] CAPABILITIES §5: the iris at the lens front imaged by the cornea lies
+    // about 3.04 mm behind the corneal vertex: Gullstrand exact 3.047 mm, Le Grand
+    // full 3.038 mm; tol 1e-3 mm
+    let g = model_eye::entrance_pupil(
+        &Schematic::GullstrandExact.surfaces(),
+        model_eye::IRIS_AT_LENS_FRONT,
+    )
+    .expect("Gullstrand");
+    assert_close!(g.0 * 1000.0, 3.047, 1e-3);
+    let lg = model_eye::entrance_pupil(
+        &Schematic::LeGrandFull.surfaces(),
+        model_eye::IRIS_AT_LENS_FRONT,
+    )
+    .expect("Le Grand");
+    assert_close!(lg.0 * 1000.0, 3.038, 1e-3);
+    // [C] second route, Gullstrand: the cornea as a thick lens by Gullstrand's
+    // equation, F = F1 + F2 − (t/n)F1F2, with the stop 3.1 mm behind its back
+    // vertex in aqueous; the image of the stop through the reversed cornea by
+    // Newton's relation x·x' = −f·f' from the reversed focal points: same
+    // position and magnification, tol 1e-9 mm / 1e-9.
+    let (f1, f2, t, nc, na) = (0.376 / 0.0077, -0.04 / 0.0068, 0.0005, 1.376, 1.336);
+    // Reversed: light from the stop meets F2 first, then F1.
+    let f = f2 + f1 - t / nc * f2 * f1;
+    // Principal planes of the reversed cornea measured from its first (back)
+    // vertex and from its last (front) vertex, positive toward the front.
+    let e = t / nc * f1 / f * na; // first principal plane from the back vertex
+    let e2 = -t / nc * f2 / f; // second principal plane from the front vertex
+    let l = -(0.0031 + e); // stop from the first principal plane
+    let l_prime = 1.0 / (f + na / l); // image from the second principal plane, in air
+    let from_front = l_prime + e2; // from the corneal front vertex, toward the front
+    let m = (na / l) / (1.0 / l_prime);
+    assert_close!(-from_front * 1000.0, g.0 * 1000.0, 1e-9);
+    assert_close!(m, g.1, 1e-9);
+    // The entrance pupil is enlarged (a real-looking virtual image): m > 1
+    assert!(g.1 > 1.1 && lg.1 > 1.1, "{} {}", g.1, lg.1);
+    assert!(model_eye::entrance_pupil(&Schematic::EmsleyReduced.surfaces(), 2).is_none());
+}
+
+#[test]
+fn knapps_law_for_relative_spectacle_magnification() {
+    // [C] RSM = F_e/(F_e + F_s − d·F_s·F_e): a 60 D eye corrected by −10 D at its
+    // anterior focal point (1/60 m) → RSM 1.0000 (Knapp's law); tol 1e-12
+    assert_close!(
+        relative_spectacle_magnification_axial(60.0, -10.0, 1.0 / 60.0),
+        1.0,
+        1e-12
+    );
+    // for every lens at d = 1/F_e; tol 1e-12
+    for fe in [50.0, 58.64, 60.0, 64.0] {
+        for fs in [-12.0, -4.0, 0.0, 3.0, 10.0] {
+            assert_close!(
+                relative_spectacle_magnification_axial(fe, fs, 1.0 / fe),
+                1.0,
+                1e-12
+            );
+        }
+    }
+    // [C] away from the focal point the minus lens minifies: 60 D eye, −10 D at
+    // 12 mm: 60/(50 + 7.2) = 1.048951 (closer than 1/60 m: > 1); at 20 mm
+    // 60/(50 + 12) = 0.967742; tol 1e-6
+    assert_close!(
+        relative_spectacle_magnification_axial(60.0, -10.0, 0.012),
+        1.048951,
+        1e-6
+    );
+    assert_close!(
+        relative_spectacle_magnification_axial(60.0, -10.0, 0.020),
+        0.967742,
+        1e-6
+    );
+}
