@@ -100,6 +100,12 @@
     (uncomment-region (point-min) (point-max))
     (should (equal (buffer-string) "  add +1.50\n"))))
 
+(ert-deftest parax-mode-eglot-is-there-when-required ()
+  "CI sets PARAX_REQUIRE_EGLOT so that the eglot tests cannot be skipped there."
+  (skip-unless (getenv "PARAX_REQUIRE_EGLOT"))
+  (should (require 'eglot nil t))
+  (should (getenv "PARAX_BIN")))
+
 (ert-deftest parax-mode-registers-with-eglot ()
   (skip-unless (require 'eglot nil t))
   (let ((entry (assq 'parax-mode eglot-server-programs)))
