@@ -41,6 +41,34 @@ local function check()
     vim.lsp.buf_attach_client(buf, id)
   end
 
+  if modern and os.getenv("PARAX_TS_PARSER") then
+    -- Tree-sitter highlighting as the README sets it up: the grammar of
+    -- editors/tree-sitter-parax (compiled by run.sh) and its highlight query.
+    vim.treesitter.language.add("parax", { path = os.getenv("PARAX_TS_PARSER") })
+    local query = table.concat(vim.fn.readfile(root .. "/editors/tree-sitter-parax/queries/highlights.scm"), "\n")
+    vim.treesitter.query.set("parax", "highlights", query)
+    vim.treesitter.start(buf, "parax")
+    local tree = vim.treesitter.get_parser(buf, "parax"):parse()[1]
+    assert(not tree:root():has_error(), "tree-sitter finds errors in the example")
+    local function captures(row, col)
+      local names = {}
+      for _, c in ipairs(vim.treesitter.get_captures_at_pos(buf, row, col)) do
+        table.insert(names, c.capture)
+      end
+      return table.concat(names, ",")
+    end
+    -- Line 9 `eye right`, line 10 `  refraction -5.75 / -1.50 x 175 @ 12 mm  # ...`.
+    for _, want in ipairs({
+      { 8, 0, "keyword" }, { 8, 4, "constant" }, { 9, 2, "property" }, { 9, 13, "number" },
+      { 9, 19, "punctuation.delimiter" }, { 9, 27, "operator" }, { 9, 38, "type.builtin" },
+      { 9, 42, "comment" }, { 2, 5, "string" }, { 3, 7, "string.special" },
+    }) do
+      local got = captures(want[1], want[2])
+      assert(got == want[3], string.format("tree-sitter capture at %d:%d is '%s', not '%s'",
+        want[1] + 1, want[2], got, want[3]))
+    end
+  end
+
   -- Diagnostics: the example has two vertex notes (P0303) and no error.
   assert(vim.wait(15000, function() return #vim.diagnostic.get(buf) >= 2 end, 50), "no diagnostics arrived")
   for _, d in ipairs(vim.diagnostic.get(buf)) do
@@ -95,7 +123,9 @@ if ok then
   local v = vim.version()
   io.stdout:write(string.format("neovim %d.%d.%d", v.major, v.minor, v.patch) .. " headless ("
     .. (modern and "vim.lsp.enable" or "vim.lsp.start_client")
-    .. "): diagnostics, hover" .. (modern and ", inlay hints" or "") .. " and formatting ok\n")
+    .. "): diagnostics, hover" .. (modern and ", inlay hints" or "")
+    .. ((modern and os.getenv("PARAX_TS_PARSER")) and ", tree-sitter highlighting" or "")
+    .. " and formatting ok\n")
   vim.cmd("qall!")
 else
   io.stderr:write("neovim headless test failed: " .. tostring(err) .. "\n")
