@@ -16,6 +16,10 @@
  * the tokens below are shaped so that both read the same text the same way:
  * `x10` is the axis sign and 10 (a word cannot start with `x` followed by a
  * digit), `12 mmHg` is a number and the word `mmHg`, `12 mm` a quantity.
+ * Known differences, on malformed values only, come from pest's look-ahead
+ * (`!word_char`), which tokens here cannot express: a date glued to a digit or
+ * letter (`2026-11-180`), and `°`, `%` or `×` glued to one (`0%2`, `×x`).
+ * tests/agreement.rs checks everything else on generated files.
  */
 
 // Characters that may follow the first character of a word (pest: word_char).
