@@ -1,7 +1,7 @@
 ;;; parax-mode.el --- Major mode for parax optical case files -*- lexical-binding: t; -*-
 
 ;; Version: 0.1.0
-;; Package-Requires: ((emacs "29.1"))
+;; Package-Requires: ((emacs "28.1"))
 ;; Keywords: languages
 ;; SPDX-License-Identifier: MIT OR Apache-2.0
 
@@ -29,11 +29,14 @@
 
 (defconst parax-font-lock-keywords
   `((,(concat "^" (regexp-opt parax-block-keywords 'symbols)) . font-lock-keyword-face)
-    ("^[ \t]+\\([a-z][a-z0-9-]*\\)" 1 font-lock-builtin-face)
-    ("[0-9]\\{4\\}-[0-9]\\{2\\}-[0-9]\\{2\\}" . font-lock-constant-face)
-    ("[-+]?[0-9]+\\(?:\\.[0-9]+\\)?[ \t]*\\(mm\\|cm\\|m\\|DS\\|DC\\|D\\|deg\\|°\\|Δ\\|prism\\|y\\)\\_>?"
+    ("^[ \t]+\\([a-z][a-z0-9_-]*\\)" 1 font-lock-builtin-face)
+    ("\\_<[0-9]\\{4\\}-[0-9]\\{2\\}-[0-9]\\{2\\}\\_>" . font-lock-constant-face)
+    ;; A unit right after a number: `13 mm', `13mm', `2Δ'. Letters-only units
+    ;; end where the symbol ends, so `12 mmHg' is a number and a word.
+    ("[0-9.][ \t]*\\(\\(?:mm\\|cm\\|m\\|DS\\|DC\\|D\\|deg\\|prism\\|y\\)\\_>\\|[°Δ%]\\)"
      1 font-lock-type-face)
-    ("[-+]?\\_<[0-9]+\\(?:\\.[0-9]+\\)?" . font-lock-constant-face))
+    ;; Numbers, signed with +, - or the minus sign U+2212.
+    ("\\_<[-+\u2212]?\\(?:[0-9]+\\(?:\\.[0-9]*\\)?\\|\\.[0-9]+\\)" . font-lock-constant-face))
   "Highlighting for `parax-mode'.")
 
 (defvar parax-mode-syntax-table
@@ -42,6 +45,8 @@
     (modify-syntax-entry ?\n ">" st)
     (modify-syntax-entry ?\" "\"" st)
     (modify-syntax-entry ?- "_" st)
+    (modify-syntax-entry ?+ "_" st)
+    (modify-syntax-entry ?\u2212 "_" st)
     (modify-syntax-entry ?. "_" st)
     st)
   "Syntax table for `parax-mode'.")
@@ -66,9 +71,14 @@
 ;;;###autoload
 (add-to-list 'auto-mode-alist '("\\.parax\\'" . parax-mode))
 
+;; A function rather than a fixed list, so that setting `parax-program' after
+;; this file is loaded still takes effect.
+(defun parax-eglot-contact (&optional _interactive)
+  "The command that starts the parax language server, for eglot."
+  (list parax-program "lsp"))
+
 (with-eval-after-load 'eglot
-  (add-to-list 'eglot-server-programs
-               `(parax-mode . (,parax-program "lsp"))))
+  (add-to-list 'eglot-server-programs '(parax-mode . parax-eglot-contact)))
 
 (provide 'parax-mode)
 ;;; parax-mode.el ends here
