@@ -22,7 +22,7 @@ fn place(p: ImagePlace, label: &str) -> V {
             after_element_m, ..
         } => V::Distance {
             metres: after_element_m,
-            from: label.to_owned(),
+            from: label.to_owned().into(),
         },
     }
 }
@@ -138,25 +138,25 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         chain.push_str("; ");
         chain.push_str(&line);
         out.push(
-            &format!("{label}.vergence-in"),
-            &format!("vergence arriving at {label}"),
+            format!("{label}.vergence-in"),
+            format!("vergence arriving at {label}"),
             V::Power {
                 dioptres: step.incident_vergence,
             },
             span,
             "L2 = L1' / (1 − (d/n)·L1')",
-            chain.clone(),
+            || chain.clone(),
             src::VERGENCE,
         );
         out.push(
-            &format!("{label}.vergence-out"),
-            &format!("vergence leaving {label}"),
+            format!("{label}.vergence-out"),
+            format!("vergence leaving {label}"),
             V::Power {
                 dioptres: step.emergent_vergence,
             },
             span,
             "L' = L + F",
-            line.clone(),
+            || line.clone(),
             src::VERGENCE,
         );
         let image_sub = match step.image {
@@ -174,27 +174,29 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             }
         };
         out.push(
-            &format!("{label}.image"),
-            &format!("image formed by {label}"),
+            format!("{label}.image"),
+            format!("image formed by {label}"),
             place(step.image, label),
             span,
             "l' = n / L'",
-            image_sub,
+            || image_sub,
             src::VERGENCE,
         );
         if let Some(m) = step.magnification {
             out.push(
-                &format!("{label}.magnification"),
-                &format!("lateral magnification at {label}"),
+                format!("{label}.magnification"),
+                format!("lateral magnification at {label}"),
                 V::Number { value: m },
                 span,
                 "m = L / L'",
-                format!(
-                    "m = {} / {} = {}",
-                    n4(step.incident_vergence),
-                    n4(step.emergent_vergence),
-                    n4(m)
-                ),
+                || {
+                    format!(
+                        "m = {} / {} = {}",
+                        n4(step.incident_vergence),
+                        n4(step.emergent_vergence),
+                        n4(m)
+                    )
+                },
                 src::VERGENCE,
             );
         }
@@ -207,7 +209,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         place(t.final_image, last_label),
         last_span,
         "step-along vergence through every element",
-        chain.clone(),
+        || chain.clone(),
         src::VERGENCE,
     );
     if let Some(m) = t.total_magnification {
@@ -222,7 +224,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             V::Number { value: m },
             last_span,
             "m = m1 · m2 · …",
-            format!("{} = {}", factors.join(" · "), n4(m)),
+            || format!("{} = {}", factors.join(" · "), n4(m)),
             src::VERGENCE,
         );
     }
@@ -240,10 +242,12 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
     out.push(
         "image-kind",
         "kind of final image",
-        V::Text { text: kind.clone() },
+        V::Text {
+            text: kind.clone().into(),
+        },
         last_span,
         "real when the final vergence L' > 0; erect when m > 0",
-        kind.clone(),
+        || kind.clone(),
         src::VERGENCE,
     );
     // Powers by matrices, up to the last lens (a trailing gap is image space).
@@ -283,7 +287,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
                 V::Power { dioptres: value },
                 last_span,
                 formula,
-                format!("{msub}; {formula} = {}", n4(value)),
+                || format!("{msub}; {formula} = {}", n4(value)),
                 src::MATRICES,
             );
         }
