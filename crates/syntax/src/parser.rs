@@ -233,9 +233,18 @@ fn walk_line(pair: Pair<'_, Rule>, span: Span, base: usize) -> Line {
     let mut indent = 0;
     let mut keyword = None;
     let mut block = None;
-    let mut values = Vec::new();
+    let pairs = pair.into_inner();
+    // Values are most of the tree: allocate exactly as many as the line holds
+    // (a growing vector keeps up to 3 spare slots of a 72-byte value).
+    let is_value = |r: Rule| {
+        !matches!(
+            r,
+            Rule::indent | Rule::keyword | Rule::block_kind | Rule::comment
+        )
+    };
+    let mut values = Vec::with_capacity(pairs.clone().filter(|p| is_value(p.as_rule())).count());
     let mut comment = None;
-    for inner in pair.into_inner() {
+    for inner in pairs {
         let s = shift(inner.as_span(), base);
         match inner.as_rule() {
             Rule::indent => indent = s.len(),

@@ -84,14 +84,14 @@ fn refraction(
         src::THIBOS_1997,
     );
     let pv = rx.power_vector();
-    let t2 = format!("2θ = {}°", n4(2.0 * a));
+    let t2 = || format!("2θ = {}°", n4(2.0 * a));
     out.push(
         "vector-j0",
         "power vector J0",
         V::Power { dioptres: pv.j0 },
         span,
         "J0 = −(C/2)·cos 2θ",
-        || format!("J0 = −({}/2)·cos({t2}) = {}", n4(c), n4(pv.j0)),
+        || format!("J0 = −({}/2)·cos({}) = {}", n4(c), t2(), n4(pv.j0)),
         src::THIBOS_1997,
     );
     out.push(
@@ -100,7 +100,7 @@ fn refraction(
         V::Power { dioptres: pv.j45 },
         span,
         "J45 = −(C/2)·sin 2θ",
-        || format!("J45 = −({}/2)·sin({t2}) = {}", n4(c), n4(pv.j45)),
+        || format!("J45 = −({}/2)·sin({}) = {}", n4(c), t2(), n4(pv.j45)),
         src::THIBOS_1997,
     );
     let b = pv.blur_strength();
@@ -273,28 +273,29 @@ fn vertex_transfer(
     let moved = transfer_sphcyl(rx, shift);
     let m = rx.principal_meridians();
     let mm = moved.principal_meridians();
-    let substituted = m
-        .iter()
-        .zip(mm.iter())
-        .map(|(a, b)| {
-            format!(
-                "{} / (1 − {}·{}) = {} @ {}",
-                n4(a.power),
-                n4(shift),
-                n4(a.power),
-                n4(b.power),
-                n4(a.meridian)
-            )
-        })
-        .collect::<Vec<_>>()
-        .join("; ");
+    let substituted = || {
+        m.iter()
+            .zip(mm.iter())
+            .map(|(a, b)| {
+                format!(
+                    "{} / (1 − {}·{}) = {} @ {}",
+                    n4(a.power),
+                    n4(shift),
+                    n4(a.power),
+                    n4(b.power),
+                    n4(a.meridian)
+                )
+            })
+            .collect::<Vec<_>>()
+            .join("; ")
+    };
     out.push(
         name,
         label,
         sphcyl(&moved),
         span,
         "F' = F / (1 − d·F) per principal meridian, d = distance moved toward the eye",
-        || substituted,
+        substituted,
         src::VERGENCE,
     )
     .caution = Some(src::CAUTION_VERTEX);
@@ -453,26 +454,28 @@ fn keratometry(
         let front_r = (k.value[0].radius + k.value[1].radius) / 2.0;
         let idx = CornealIndices::GULLSTRAND;
         let tp = total_corneal_power(front_r, back.value, t.value, idx);
-        let subst = format!(
-            "F1 = ({} − 1)/{} = {}; F2 = ({} − {})/{} = {}; F = F1 + F2 − ({}/{})·F1·F2 = {}",
-            idx.cornea,
-            n4(front_r),
-            n4(tp.front),
-            idx.aqueous,
-            idx.cornea,
-            n4(back.value),
-            n4(tp.back),
-            t.value,
-            idx.cornea,
-            n4(tp.total)
-        );
+        let subst = || {
+            format!(
+                "F1 = ({} − 1)/{} = {}; F2 = ({} − {})/{} = {}; F = F1 + F2 − ({}/{})·F1·F2 = {}",
+                idx.cornea,
+                n4(front_r),
+                n4(tp.front),
+                idx.aqueous,
+                idx.cornea,
+                n4(back.value),
+                n4(tp.back),
+                t.value,
+                idx.cornea,
+                n4(tp.total)
+            )
+        };
         out.push(
             "total-corneal-power",
             "total corneal power (thick cornea)",
             V::Power { dioptres: tp.total },
             back.span,
             "F = F1 + F2 − (t/n)·F1·F2",
-            || subst,
+            subst,
             src::GULLSTRAND_THICK,
         )
         .caution = caution;

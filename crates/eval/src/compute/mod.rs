@@ -163,6 +163,12 @@ impl<'a> Out<'a> {
         }
     }
 
+    /// True when substituted formulas are written: a derivation that costs
+    /// work before [`Out::push`] (a chain shared by several values) checks this.
+    pub(crate) fn explains(&self) -> bool {
+        self.derivations
+    }
+
     /// Add one value; `substituted` writes the formula with this case's numbers
     /// (called only when derivations are wanted).
     #[allow(clippy::too_many_arguments)]

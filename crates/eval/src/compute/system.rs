@@ -95,7 +95,11 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
     };
     let elements: Vec<Element> = s.optics_elements();
     let t = trace(object, &elements, 1.0);
+    // The step-along chain is shared by several derivations and grows per
+    // element: build it only when derivations are written.
+    let explain = out.explains();
     let mut chain = match object {
+        _ if !explain => String::new(),
         Object::AtInfinity => "L = 0 (object at infinity)".to_owned(),
         Object::Distance { before_first_m } => format!(
             "L = 1/(−{}) = {}",
@@ -128,15 +132,19 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         };
         let power = &power;
         let span = el.span;
-        let line = format!(
-            "{label}: L = {}, L' = L + F = {} + {} = {}",
-            n4(step.incident_vergence),
-            n4(step.incident_vergence),
-            n4(*power),
-            n4(step.emergent_vergence)
-        );
-        chain.push_str("; ");
-        chain.push_str(&line);
+        let line = || {
+            format!(
+                "{label}: L = {}, L' = L + F = {} + {} = {}",
+                n4(step.incident_vergence),
+                n4(step.incident_vergence),
+                n4(*power),
+                n4(step.emergent_vergence)
+            )
+        };
+        if explain {
+            chain.push_str("; ");
+            chain.push_str(&line());
+        }
         out.push(
             format!("{label}.vergence-in"),
             format!("vergence arriving at {label}"),
@@ -156,10 +164,10 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             },
             span,
             "L' = L + F",
-            || line.clone(),
+            line,
             src::VERGENCE,
         );
-        let image_sub = match step.image {
+        let image_sub = || match step.image {
             ImagePlace::AtInfinity => "L' = 0: image at infinity".to_owned(),
             ImagePlace::At {
                 after_element_m, ..
@@ -179,7 +187,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             place(step.image, label),
             span,
             "l' = n / L'",
-            || image_sub,
+            image_sub,
             src::VERGENCE,
         );
         if let Some(m) = step.magnification {
@@ -213,18 +221,19 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         src::VERGENCE,
     );
     if let Some(m) = t.total_magnification {
-        let factors: Vec<String> = t
-            .steps
-            .iter()
-            .filter_map(|s| s.magnification.map(n4))
-            .collect();
+        let factors = || -> Vec<String> {
+            t.steps
+                .iter()
+                .filter_map(|s| s.magnification.map(n4))
+                .collect()
+        };
         out.push(
             "magnification",
             "total lateral magnification",
             V::Number { value: m },
             last_span,
             "m = m1 · m2 · …",
-            || format!("{} = {}", factors.join(" · "), n4(m)),
+            || format!("{} = {}", factors().join(" · "), n4(m)),
             src::VERGENCE,
         );
     }
@@ -253,13 +262,15 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
     // Powers by matrices, up to the last lens (a trailing gap is image space).
     let m = system_matrix(&elements[..=last_i]);
     let p = system_powers(&m);
-    let msub = format!(
-        "A = {}, B = {}, C = {}, D = {}",
-        n4(m.a),
-        n4(m.b),
-        n4(m.c),
-        n4(m.d)
-    );
+    let msub = || {
+        format!(
+            "A = {}, B = {}, C = {}, D = {}",
+            n4(m.a),
+            n4(m.b),
+            n4(m.c),
+            n4(m.d)
+        )
+    };
     for (name, label, formula, value) in [
         (
             "equivalent-power",
@@ -287,7 +298,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
                 V::Power { dioptres: value },
                 last_span,
                 formula,
-                || format!("{msub}; {formula} = {}", n4(value)),
+                || format!("{}; {formula} = {}", msub(), n4(value)),
                 src::MATRICES,
             );
         }
