@@ -153,7 +153,7 @@ fn assert_spans_slice(parsed: &Parsed, ev: &parax_eval::Evaluation) {
         }
     }
     for d in &ev.derived {
-        assert!(ok(d.span), "{} span {:?}", d.key, d.span);
+        assert!(ok(d.span), "{} span {:?}", d.key(), d.span);
     }
 }
 
@@ -204,11 +204,7 @@ fn content(source: &str) -> Content {
             }
         })
         .collect();
-    let derived = ev
-        .derived
-        .iter()
-        .map(|d| (d.key.clone(), d.text.clone()))
-        .collect();
+    let derived = ev.derived.iter().map(|d| (d.key(), d.text())).collect();
     let codes = ev.diagnostics.iter().map(|d| d.code).collect();
     Content {
         comments,

@@ -8,7 +8,7 @@
 
 use crate::files;
 use indicatif::{ProgressBar, ProgressStyle};
-use parax_eval::{evaluate_source, Derived, DerivedValue, Severity};
+use parax_eval::{evaluate_source_with, Derived, DerivedValue, EvalOptions, Severity};
 use rayon::prelude::*;
 use serde::Serialize;
 use std::io::{IsTerminal, Write};
@@ -80,15 +80,12 @@ pub struct Row {
 
 /// The block prefix of a derived value's key.
 fn block_of(d: &Derived) -> &str {
-    d.key
-        .strip_suffix(&d.name)
-        .unwrap_or(&d.key)
-        .trim_end_matches('.')
+    &d.block
 }
 
 fn fill(row: &mut Row, d: &Derived) {
     use DerivedValue as V;
-    match (d.name.as_str(), &d.value) {
+    match (&*d.name, &d.value) {
         ("spherical-equivalent", V::Power { dioptres }) => row.m = Some(*dioptres),
         ("vector-j0", V::Power { dioptres }) => row.j0 = Some(*dioptres),
         ("vector-j45", V::Power { dioptres }) => row.j45 = Some(*dioptres),
@@ -102,11 +99,11 @@ fn fill(row: &mut Row, d: &Derived) {
         ("front-vertex-power", V::Power { dioptres }) => row.front_vertex_power = Some(*dioptres),
         ("image", V::Distance { metres, from }) => {
             row.image_m = Some(*metres);
-            row.image_from = Some(from.clone());
+            row.image_from = Some(from.to_string());
         }
         ("image", V::Infinity) => row.image_from = Some("infinity".into()),
         ("magnification", V::Number { value }) => row.magnification = Some(*value),
-        ("image-kind", V::Text { text }) => row.image_kind = Some(text.clone()),
+        ("image-kind", V::Text { text }) => row.image_kind = Some(text.to_string()),
         _ => {}
     }
 }
@@ -126,7 +123,7 @@ pub fn rows_of(path: &Path) -> Vec<Row> {
         Ok(s) => s,
         Err(e) => return vec![error_row(e)],
     };
-    let (parsed, ev) = evaluate_source(&source);
+    let (parsed, ev) = evaluate_source_with(&source, EvalOptions::VALUES_ONLY);
     let errors: Vec<_> = ev
         .diagnostics
         .iter()

@@ -2,7 +2,7 @@
 
 use crate::render::{human, json, sarif};
 use crate::{files, Format};
-use parax_eval::{evaluate_source, Severity};
+use parax_eval::{evaluate_source_with, EvalOptions, Severity};
 use rayon::prelude::*;
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -24,7 +24,7 @@ fn check_one(
 ) -> Result<(Checked, Option<serde_json::Value>), String> {
     let source = files::read(path)?;
     let name = files::display(path);
-    let (parsed, ev) = evaluate_source(&source);
+    let (parsed, ev) = evaluate_source_with(&source, EvalOptions::VALUES_ONLY);
     let mut counts = [0; 3];
     for d in &ev.diagnostics {
         counts[match d.severity {

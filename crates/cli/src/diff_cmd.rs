@@ -6,7 +6,9 @@
 
 use crate::files;
 use crate::render::human;
-use parax_eval::{evaluate_source, Derived, DerivedValue, Evaluation, GENERAL_CAUTION};
+use parax_eval::{
+    evaluate_source_with, Derived, DerivedValue, EvalOptions, Evaluation, GENERAL_CAUTION,
+};
 use parax_syntax::Parsed;
 use serde_json::{json, Value};
 use std::collections::BTreeMap;
@@ -51,7 +53,7 @@ fn load(arg: &str) -> Result<Version, String> {
     } else {
         return Err(format!("{arg}: no such file"));
     };
-    let (parsed, ev) = evaluate_source(&source);
+    let (parsed, ev) = evaluate_source_with(&source, EvalOptions::VALUES_ONLY);
     Ok(Version {
         name: arg.to_owned(),
         parsed,
@@ -117,7 +119,7 @@ struct InputChange {
 
 /// A derived value that moved, appeared or disappeared.
 struct ValueChange<'a> {
-    key: &'a str,
+    key: String,
     name: &'a str,
     old: Option<&'a Derived>,
     new: Option<&'a Derived>,
@@ -169,22 +171,23 @@ fn compare<'a>(old: &'a Version, new: &'a Version) -> Vec<(String, BlockChanges<
             }
         }
     }
-    let old_values: BTreeMap<&str, &Derived> =
-        old.ev.derived.iter().map(|d| (d.key.as_str(), d)).collect();
-    let new_values: BTreeMap<&str, &Derived> =
-        new.ev.derived.iter().map(|d| (d.key.as_str(), d)).collect();
-    let mut keys: Vec<(&str, &str, String)> = Vec::new();
+    let old_values: BTreeMap<String, &Derived> =
+        old.ev.derived.iter().map(|d| (d.key(), d)).collect();
+    let new_values: BTreeMap<String, &Derived> =
+        new.ev.derived.iter().map(|d| (d.key(), d)).collect();
+    let mut keys: Vec<(String, &str, String)> = Vec::new();
     for d in &old.ev.derived {
-        keys.push((&d.key, &d.name, block_of(&old.parsed, d.span.start)));
+        keys.push((d.key(), &d.name, block_of(&old.parsed, d.span.start)));
     }
     for d in &new.ev.derived {
-        if !old_values.contains_key(d.key.as_str()) {
-            keys.push((&d.key, &d.name, block_of(&new.parsed, d.span.start)));
+        let key = d.key();
+        if !old_values.contains_key(&key) {
+            keys.push((key, &d.name, block_of(&new.parsed, d.span.start)));
         }
     }
     for (key, name, block) in keys {
-        let (a, b) = (old_values.get(key).copied(), new_values.get(key).copied());
-        if a.map(|d| &d.text) != b.map(|d| &d.text) {
+        let (a, b) = (old_values.get(&key).copied(), new_values.get(&key).copied());
+        if a.map(|d| d.text()) != b.map(|d| d.text()) {
             note(&block, &mut order);
             by_block.entry(block).or_default().values.push(ValueChange {
                 key,
@@ -230,7 +233,7 @@ fn human_report(old: &Version, new: &Version, changes: &[(String, BlockChanges)]
             );
         }
         for v in &c.values {
-            let text = |d: Option<&Derived>| d.map_or("(absent)".to_owned(), |d| d.text.clone());
+            let text = |d: Option<&Derived>| d.map_or("(absent)".to_owned(), |d| d.text());
             let diff = difference(v)
                 .map(|d| format!("   (change {})", d.display()))
                 .unwrap_or_default();
@@ -252,7 +255,7 @@ fn json_report(old: &Version, new: &Version, changes: &[(String, BlockChanges)])
         i.as_ref()
             .map(|i| json!({ "text": i.text, "line": i.line }))
     };
-    let value = |d: Option<&Derived>| d.map(|d| json!({ "value": d.value, "text": d.text }));
+    let value = |d: Option<&Derived>| d.map(|d| json!({ "value": d.value, "text": d.text() }));
     json!({
         "old": old.name,
         "new": new.name,
@@ -321,7 +324,7 @@ pub fn view(path: &Path) -> u8 {
         let _ = out.write_all(&bytes);
         return 0;
     };
-    let (parsed, ev) = evaluate_source(&source);
+    let (parsed, ev) = evaluate_source_with(&source, EvalOptions::VALUES_ONLY);
     let _ = out.write_all(source.as_bytes());
     if !parsed.errors.is_empty() {
         return 0;
@@ -335,7 +338,7 @@ pub fn view(path: &Path) -> u8 {
         "\n# ---- derived by parax (aids only; verify clinically) ----"
     );
     for d in &ev.derived {
-        let _ = writeln!(text, "# {} = {}", d.key, d.text);
+        let _ = writeln!(text, "# {} = {}", d.key(), d.text());
     }
     let _ = out.write_all(text.as_bytes());
     0

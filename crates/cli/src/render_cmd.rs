@@ -11,7 +11,7 @@ use parax_diagram::{
     PowerCross,
 };
 use parax_eval::model::{ObjectAt, System, SystemElement};
-use parax_eval::{evaluate_source, slug, DerivedValue};
+use parax_eval::{evaluate_source_with, slug, DerivedValue, EvalOptions};
 use parax_optics::system::{ray_heights, trace, Element, ImagePlace, Object};
 use std::path::Path;
 
@@ -153,7 +153,7 @@ pub fn run(path: &Path, out: &Path) -> u8 {
             return 2;
         }
     };
-    let (_, ev) = evaluate_source(&source);
+    let (_, ev) = evaluate_source_with(&source, EvalOptions::VALUES_ONLY);
     let stem = path
         .file_stem()
         .map_or("stdin".into(), |s| s.to_string_lossy().into_owned());
@@ -172,7 +172,7 @@ pub fn run(path: &Path, out: &Path) -> u8 {
         let find = |name: &str| {
             ev.derived
                 .iter()
-                .find(|d| d.key == format!("eye.{side}.{name}"))
+                .find(|d| d.is_key(&format!("eye.{side}.{name}")))
         };
         let meridian = |name: &str| match find(name).map(|d| &d.value) {
             Some(DerivedValue::Meridian { dioptres, meridian }) => Some(MeridianMark {
@@ -188,7 +188,7 @@ pub fn run(path: &Path, out: &Path) -> u8 {
         if let (Some(a), Some(b)) = (meridian("meridian-1"), meridian("meridian-2")) {
             let rx = find("minus-cyl")
                 .or_else(|| find("spherical-equivalent"))
-                .map_or(String::new(), |d| d.text.clone());
+                .map_or(String::new(), |d| d.text());
             pictures.push((
                 format!("{stem}.eye.{side}.svg"),
                 power_cross_svg(&PowerCross {

@@ -7,7 +7,7 @@ use crate::batch::evaluate_all_with;
 use crate::files;
 use crate::render::human;
 use parax_eval::model::Side;
-use parax_eval::{evaluate_source, DerivedValue, Severity, GENERAL_CAUTION};
+use parax_eval::{evaluate_source_with, DerivedValue, EvalOptions, Severity, GENERAL_CAUTION};
 use parax_optics::cohort::{summarize, CohortSummary};
 use parax_optics::PowerVector;
 use serde_json::json;
@@ -48,7 +48,7 @@ struct Sample {
 fn samples_of(path: &Path, group_by: GroupBy) -> Result<Vec<Sample>, String> {
     let source = files::read(path)?;
     let name = files::display(path);
-    let (parsed, ev) = evaluate_source(&source);
+    let (parsed, ev) = evaluate_source_with(&source, EvalOptions::VALUES_ONLY);
     if let Some(d) = ev
         .diagnostics
         .iter()
@@ -60,7 +60,7 @@ fn samples_of(path: &Path, group_by: GroupBy) -> Result<Vec<Sample>, String> {
     let power = |key: &str| {
         ev.derived
             .iter()
-            .find(|d| d.key == key)
+            .find(|d| d.is_key(key))
             .and_then(|d| match d.value {
                 DerivedValue::Power { dioptres } => Some(dioptres),
                 _ => None,

@@ -111,6 +111,10 @@ fn table(text: &str, label: &str) {
     );
     let derived = both.1.derived.len();
     drop(both);
+    let (peak, held, both) =
+        measure(|| parax_eval::evaluate_source_with(text, parax_eval::EvalOptions::VALUES_ONLY));
+    row("  the same, values only (as `parax check`)", peak, held);
+    drop(both);
     let (peak, held, case) =
         measure(|| serde_json::from_str::<parax_eval::Case>(&json).expect("valid JSON"));
     row("serde_json deserialize (JSON → model)", peak, held);

@@ -46,11 +46,8 @@ fn json_of(text: &str) -> String {
     // Rust's in the last bit, e.g. 0.0075842696629213465.)
     let back: Case = serde_json::from_str(&json).expect("the JSON reads back");
     let (derived, _) = evaluate_case(&back);
-    let shown = |d: &[parax_eval::Derived]| {
-        d.iter()
-            .map(|d| (d.key.clone(), d.text.clone()))
-            .collect::<Vec<_>>()
-    };
+    let shown =
+        |d: &[parax_eval::Derived]| d.iter().map(|d| (d.key(), d.text())).collect::<Vec<_>>();
     assert_eq!(
         shown(&derived),
         shown(&ev.derived),

@@ -1,8 +1,17 @@
 //! The one model of derived values: what was computed, from what, by which
 //! published method. Every front end renders these and nothing else.
+//!
+//! A file may carry hundreds of thousands of values, so a value holds no text it
+//! can rebuild: the key is its block id (shared by every value of the block) and
+//! its name, built on demand by [`Derived::key`]; the display text is rendered from
+//! the value by [`Derived::text`]; names, labels and the words inside a value are
+//! `Cow<'static, str>`, borrowed from the program text in nearly every case.
 
 use parax_syntax::Span;
-use serde::Serialize;
+use serde::ser::SerializeStruct;
+use serde::{Serialize, Serializer};
+use std::borrow::Cow;
+use std::sync::Arc;
 
 /// A published source or a practice rule, with its provenance tag.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -19,7 +28,10 @@ pub struct Source {
 pub struct Derivation {
     /// The formula in symbols.
     pub formula: &'static str,
-    /// The formula with this case's numbers substituted, and the result.
+    /// The formula with this case's numbers substituted, and the result. Empty
+    /// when the evaluation was asked for values only
+    /// ([`EvalOptions::derivations`](crate::EvalOptions) false, as `parax check`
+    /// does); every evaluation through [`crate::evaluate`] writes it.
     pub substituted: String,
     /// Where the method is published.
     pub source: Source,
@@ -62,7 +74,7 @@ pub enum DerivedValue {
         /// Metres, positive to the right (behind the reference).
         metres: f64,
         /// What it is measured from: "L2", "the cornea", "the spectacle plane".
-        from: String,
+        from: Cow<'static, str>,
     },
     /// A point at infinity.
     Infinity,
@@ -77,7 +89,7 @@ pub enum DerivedValue {
         /// Prism dioptres (≥ 0).
         dioptres: f64,
         /// Base direction.
-        base: String,
+        base: Cow<'static, str>,
     },
     /// A pure number (magnification, ratio).
     Number {
@@ -87,30 +99,66 @@ pub enum DerivedValue {
     /// A word or phrase (a classification).
     Text {
         /// The text.
-        text: String,
+        text: Cow<'static, str>,
     },
 }
 
 /// One derived value.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq)]
 pub struct Derived {
-    /// Stable key, `<block>.<name>`, e.g. `eye.right.spherical-equivalent`
-    /// (documented in docs/notation.md; `expect <name>` refers to the name part).
-    pub key: String,
+    /// The block id, the first part of the key: `eye.right`, `system.bench`.
+    /// Shared by every value of the block.
+    pub block: Arc<str>,
     /// The name part of the key, as an `expect` line writes it.
-    pub name: String,
+    pub name: Cow<'static, str>,
     /// Human label.
-    pub label: String,
+    pub label: Cow<'static, str>,
     /// The value.
     pub value: DerivedValue,
-    /// Compact display text, e.g. `-3.82 / -1.12 x 10`.
-    pub text: String,
     /// The statement (line) the value belongs to.
     pub span: Span,
     /// Formula, numbers, source.
     pub derivation: Derivation,
     /// A clinical caution that applies to this value.
     pub caution: Option<&'static str>,
+}
+
+impl Derived {
+    /// Stable key, `<block>.<name>`, e.g. `eye.right.spherical-equivalent`
+    /// (documented in docs/notation.md; `expect <name>` refers to the name part).
+    pub fn key(&self) -> String {
+        format!("{}.{}", self.block, self.name)
+    }
+
+    /// True when [`Derived::key`] equals `key` (without building the key).
+    pub fn is_key(&self, key: &str) -> bool {
+        key.strip_prefix(&*self.block)
+            .and_then(|rest| rest.strip_prefix('.'))
+            .is_some_and(|name| name == self.name)
+    }
+
+    /// Compact display text, e.g. `-3.82 / -1.12 x 10`, rendered from the value.
+    pub fn text(&self) -> String {
+        self.value.display()
+    }
+}
+
+/// The JSON shape of a derived value is the one it had when key and text were
+/// stored fields: `key`, `name`, `label`, `value`, `text`, `span`, `derivation`,
+/// `caution`, in that order.
+impl Serialize for Derived {
+    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        let mut s = serializer.serialize_struct("Derived", 8)?;
+        s.serialize_field("key", &self.key())?;
+        s.serialize_field("name", &self.name)?;
+        s.serialize_field("label", &self.label)?;
+        s.serialize_field("value", &self.value)?;
+        s.serialize_field("text", &self.text())?;
+        s.serialize_field("span", &self.span)?;
+        s.serialize_field("derivation", &self.derivation)?;
+        s.serialize_field("caution", &self.caution)?;
+        s.end()
+    }
 }
 
 /// Format a power like the trade writes it: sign always, two decimals.
@@ -161,7 +209,7 @@ impl DerivedValue {
                 format!("{dioptres:.2}Δ {base}").trim_end().to_owned()
             }
             DerivedValue::Number { value } => format!("{value:.4}"),
-            DerivedValue::Text { text } => text.clone(),
+            DerivedValue::Text { text } => text.to_string(),
         }
     }
 }

@@ -123,15 +123,11 @@ fn possible_names(block: &str) -> &'static [&'static str] {
 pub fn check(block: &str, expects: &[Expect], derived: &[Derived], diags: &mut Vec<Diagnostic>) {
     for e in expects {
         let key = format!("{block}.{}", e.name);
-        let Some(d) = derived.iter().find(|d| d.key == key) else {
+        let Some(d) = derived.iter().find(|d| d.is_key(&key)) else {
             let mine: Vec<&str> = derived
                 .iter()
-                .filter(|d| {
-                    d.key
-                        .strip_suffix(&d.name)
-                        .is_some_and(|b| b.trim_end_matches('.') == block)
-                })
-                .map(|d| d.name.as_str())
+                .filter(|d| &*d.block == block)
+                .map(|d| &*d.name)
                 .collect();
             let per_lens = e.name.contains('.')
                 && ["image", "magnification", "vergence-in", "vergence-out"]
@@ -184,14 +180,15 @@ pub fn check(block: &str, expects: &[Expect], derived: &[Derived], diags: &mut V
                 value_span,
                 format!(
                     "recorded {} differs from the computed {}: {why}",
-                    e.name, d.text
+                    e.name,
+                    d.text()
                 ),
             )
             .hint("if an input changed, update the recorded result; otherwise check the inputs")
             .fix(
-                format!("record the computed value `{}`", d.text),
+                format!("record the computed value `{}`", d.text()),
                 value_span,
-                d.text.clone(),
+                d.text(),
             );
             if let Some(c) = d.caution {
                 diag = diag.caution(c);

@@ -21,6 +21,7 @@ pub use compute::slug;
 pub use derived::{Derived, DerivedValue, Difference};
 pub use diagnostic::{Diagnostic, Edit, Fix, Severity, GENERAL_CAUTION};
 pub use incremental::evaluate_incremental;
+
 pub use model::Case;
 
 use parax_syntax::Parsed;
@@ -47,11 +48,36 @@ impl Evaluation {
     }
 }
 
+/// What an evaluation should write besides the values and diagnostics.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct EvalOptions {
+    /// Write each value's substituted formula ([`derived::Derivation::substituted`]).
+    /// On by default; `parax check`, which shows only diagnostics, turns it off
+    /// and saves most of the evaluator's text formatting and memory.
+    pub derivations: bool,
+}
+
+impl Default for EvalOptions {
+    fn default() -> Self {
+        EvalOptions { derivations: true }
+    }
+}
+
+impl EvalOptions {
+    /// Values and diagnostics only, no substituted formulas.
+    pub const VALUES_ONLY: EvalOptions = EvalOptions { derivations: false };
+}
+
 /// Evaluate a parsed file.
 pub fn evaluate(parsed: &Parsed) -> Evaluation {
+    evaluate_with(parsed, EvalOptions::default())
+}
+
+/// Evaluate a parsed file with `options`.
+pub fn evaluate_with(parsed: &Parsed, options: EvalOptions) -> Evaluation {
     let mut diagnostics: Vec<Diagnostic> = parsed.errors.iter().map(from_syntax).collect();
     let case = lower::lower(parsed, &mut diagnostics);
-    let (derived, more) = evaluate_case(&case);
+    let (derived, more) = evaluate_case_with(&case, options);
     diagnostics.extend(more);
     diagnostics.sort_by_key(|d| (d.span.start, d.severity));
     Evaluation {
@@ -69,12 +95,24 @@ pub fn evaluate_source(source: &str) -> (Parsed, Evaluation) {
     (parsed, evaluation)
 }
 
+/// Parse and evaluate source text with `options`.
+pub fn evaluate_source_with(source: &str, options: EvalOptions) -> (Parsed, Evaluation) {
+    let parsed = parax_syntax::parse(source);
+    let evaluation = evaluate_with(&parsed, options);
+    (parsed, evaluation)
+}
+
 /// Evaluate a case model (read from a file or from JSON): derived values, and the
 /// diagnostics of computation and `expect` lines.
 pub fn evaluate_case(case: &Case) -> (Vec<Derived>, Vec<Diagnostic>) {
+    evaluate_case_with(case, EvalOptions::default())
+}
+
+/// [`evaluate_case`] with `options`.
+pub fn evaluate_case_with(case: &Case, options: EvalOptions) -> (Vec<Derived>, Vec<Diagnostic>) {
     let mut derived = Vec::new();
     let mut diags = Vec::new();
-    compute::compute(case, &mut derived, &mut diags);
+    compute::compute(case, options.derivations, &mut derived, &mut diags);
     // Each block's values are pushed together; index the range of each block id
     // once, so checking `expect` lines costs one look-up per block instead of a
     // scan of every value of the file (quadratic on large files).
@@ -94,11 +132,7 @@ fn block_ranges(derived: &[Derived]) -> std::collections::HashMap<&str, (usize, 
     let mut ranges: std::collections::HashMap<&str, (usize, usize)> =
         std::collections::HashMap::new();
     for (i, d) in derived.iter().enumerate() {
-        let block = d
-            .key
-            .strip_suffix(d.name.as_str())
-            .map_or(d.key.as_str(), |b| b.trim_end_matches('.'));
-        let r = ranges.entry(block).or_insert((i, i + 1));
+        let r = ranges.entry(&*d.block).or_insert((i, i + 1));
         r.1 = i + 1;
     }
     ranges

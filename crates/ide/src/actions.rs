@@ -122,11 +122,11 @@ fn transpose(a: &Analysis, line: &Line, out: &mut Vec<Action>) {
         return;
     };
     out.push(Action {
-        title: format!("transpose to {form}-cylinder form: {}", d.text),
+        title: format!("transpose to {form}-cylinder form: {}", d.text()),
         kind: ActionKind::Rewrite,
         edits: vec![Edit {
             span: Span::new(vals[0].span.start, axis.span.end),
-            text: d.text.clone(),
+            text: d.text(),
         }],
         diagnostic: None,
     });
@@ -241,14 +241,14 @@ fn record(a: &Analysis, li: usize, out: &mut Vec<Action>) {
         .collect();
     let refresh = |name: &str, d: &parax_eval::Derived, out: &mut Vec<Action>| {
         if let Some((_, span)) = expects.iter().find(|(n, _)| n == name) {
-            if a.parsed.text(*span) != d.text {
+            if a.parsed.text(*span) != d.text() {
                 let text = if span.is_empty() {
-                    format!(" {}", d.text)
+                    format!(" {}", d.text())
                 } else {
-                    d.text.clone()
+                    d.text()
                 };
                 out.push(Action {
-                    title: format!("refresh `expect {name}` to {}", d.text),
+                    title: format!("refresh `expect {name}` to {}", d.text()),
                     kind: ActionKind::Record,
                     edits: vec![Edit { span: *span, text }],
                     diagnostic: None,
@@ -289,11 +289,11 @@ fn record(a: &Analysis, li: usize, out: &mut Vec<Action>) {
             // Insert after the block's last line.
             let at = last_line.span.end;
             out.push(Action {
-                title: format!("record `expect {} {}`", d.name, d.text),
+                title: format!("record `expect {} {}`", d.name, d.text()),
                 kind: ActionKind::Record,
                 edits: vec![Edit {
                     span: Span::new(at, at),
-                    text: format!("{eol}  expect {} {}", d.name, d.text),
+                    text: format!("{eol}  expect {} {}", d.name, d.text()),
                 }],
                 diagnostic: None,
             });

@@ -132,9 +132,9 @@ pub fn complete(a: &Analysis, offset: usize) -> Vec<Item> {
             {
                 if seen.insert(d.name.clone()) {
                     out.push(Item {
-                        label: d.name.clone(),
+                        label: d.name.to_string(),
                         kind: ItemKind::Value,
-                        detail: format!("{}: {}", d.label, d.text),
+                        detail: format!("{}: {}", d.label, d.text()),
                         replace,
                     });
                 }

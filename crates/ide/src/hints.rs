@@ -52,7 +52,7 @@ pub fn inlay_hints(a: &Analysis, range: Option<Span>) -> Vec<InlayHint> {
             let exact = here.iter().find(|d| d.name == *name);
             let per_lens = || here.iter().find(|d| d.name.ends_with(&format!(".{name}")));
             if let Some(d) = exact.or_else(per_lens) {
-                parts.push(format!("{short} {}", d.text));
+                parts.push(format!("{short} {}", d.text()));
             }
             if parts.len() == 2 {
                 break;
@@ -63,7 +63,7 @@ pub fn inlay_hints(a: &Analysis, range: Option<Span>) -> Vec<InlayHint> {
         }
         let tooltip = here
             .iter()
-            .map(|d| format!("{}: {}  [{}]", d.label, d.text, d.name))
+            .map(|d| format!("{}: {}  [{}]", d.label, d.text(), d.name))
             .collect::<Vec<_>>()
             .join("\n");
         // End of the text before any trailing comment, so the hint reads after the values.

@@ -112,7 +112,7 @@ fn derivation_md(d: &parax_eval::Derived) -> String {
     let mut s = format!(
         "\n### {}: {}\n`{}`\n\n- formula: `{}`\n- substituted: `{}`\n- source: {} [{}]\n",
         d.label,
-        d.text,
+        d.text(),
         d.name,
         d.derivation.formula,
         d.derivation.substituted,

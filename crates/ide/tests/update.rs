@@ -13,7 +13,7 @@ fn same(a: &Analysis, b: &Analysis) {
         x.evaluation
             .derived
             .iter()
-            .map(|d| (d.key.clone(), d.text.clone(), d.span))
+            .map(|d| (d.key(), d.text(), d.span))
             .collect::<Vec<_>>()
     };
     assert_eq!(keys(a), keys(b));

@@ -4,6 +4,10 @@
 //! and the formatter. This crate knows nothing of optics: which keywords a block
 //! accepts and what values mean is decided by `parax-eval`.
 
+// The pest-generated parser names `alloc` (pest is used without its `std` feature;
+// see the workspace Cargo.toml).
+extern crate alloc;
+
 mod error;
 pub mod format;
 mod line_index;

@@ -125,3 +125,37 @@ fn a_bad_range_gets_a_full_parse() {
         assert_same(&got, &p);
     }
 }
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(256))]
+    /// `parse` reads one top-level block per pest pass and falls back to single
+    /// lines only inside a rejected block; re-parsing everything from an empty
+    /// text reads every line on its own. Both must agree on any mix of good and
+    /// bad blocks (the grammar is line-local, so where the passes are cut must not
+    /// matter).
+    #[test]
+    fn blockwise_parse_equals_line_by_line(
+        pieces in prop::collection::vec(0..PIECES.len(), 0..24),
+        file in any::<prop::sample::Index>(),
+        cut in any::<prop::sample::Index>(),
+    ) {
+        let files = fixtures();
+        let base = &files[file.index(files.len())];
+        let at = floor(base, cut.index(base.len() + 1));
+        let insert: String = pieces.iter().map(|&i| PIECES[i]).collect();
+        let mut text = base.clone();
+        text.insert_str(at, &insert);
+        assert_same(&reparse(&parse(""), 0..0, &text), &parse(&text));
+    }
+}
+
+#[test]
+fn a_bad_block_costs_only_its_bad_line() {
+    let src = "eye right\n  add +1.00\neye left\n  add +2.00 $\n  pd 31 mm\n\
+               system \"s\"\n  lens L1 +5 D\n";
+    let p = parse(src);
+    assert_eq!(p.errors.len(), 1, "{:?}", p.errors);
+    assert_eq!(p.index.line_col(src, p.errors[0].span.start).0, 4);
+    assert_eq!(p.blocks.len(), 3);
+    assert_same(&p, &reparse(&parse(""), 0..0, src));
+}

@@ -86,16 +86,12 @@ pub fn derived_table(parsed: &Parsed, derived: &[Derived], explain: bool) -> Str
         .min(34);
     let text_w = derived
         .iter()
-        .map(|d| d.text.chars().count())
+        .map(|d| d.text().chars().count())
         .max()
         .unwrap_or(0)
         .min(30);
     for d in derived {
-        let block = d
-            .key
-            .strip_suffix(&d.name)
-            .unwrap_or(&d.key)
-            .trim_end_matches('.');
+        let block = &*d.block;
         if current_block != Some(block) {
             if current_block.is_some() {
                 out.push('\n');
@@ -119,7 +115,9 @@ pub fn derived_table(parsed: &Parsed, derived: &[Derived], explain: bool) -> Str
         let _ = writeln!(
             out,
             "  {:<name_w$}  {:<text_w$}  {} (line {line})",
-            d.name, d.text, d.label
+            d.name,
+            d.text(),
+            d.label
         );
         if explain {
             let _ = writeln!(

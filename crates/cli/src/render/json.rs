@@ -51,11 +51,11 @@ pub fn check_report(
 /// One derived value as JSON.
 pub fn derived(parsed: &Parsed, d: &Derived) -> Value {
     json!({
-        "key": d.key,
+        "key": d.key(),
         "name": d.name,
         "label": d.label,
         "value": d.value,
-        "text": d.text,
+        "text": d.text(),
         "range": range(parsed, d.span),
         "derivation": {
             "formula": d.derivation.formula,

@@ -76,12 +76,14 @@ fn ordered_power(
         V::Power { dioptres: diff },
         p.span,
         "largest |eigenvalue| of F_ordered − F_computed (power matrices)",
-        format!(
-            "ordered {}, {what} {} → {}",
-            sphcyl(&ordered).display(),
-            sphcyl(computed).display(),
-            n4(diff)
-        ),
+        || {
+            format!(
+                "ordered {}, {what} {} → {}",
+                sphcyl(&ordered).display(),
+                sphcyl(computed).display(),
+                n4(diff)
+            )
+        },
         src::CONTACT_ORDER,
     )
     .caution = Some(src::CAUTION_CONTACT);
@@ -138,12 +140,14 @@ pub(super) fn compute(
         sphcyl(&corneal),
         c.span,
         "F_c = F / (1 − d·F) per principal meridian",
-        format!(
-            "{} @ {} mm → {}",
-            sphcyl(&rx).display(),
-            n4(vertex * 1000.0),
-            sphcyl(&corneal).display()
-        ),
+        || {
+            format!(
+                "{} @ {} mm → {}",
+                sphcyl(&rx).display(),
+                n4(vertex * 1000.0),
+                sphcyl(&corneal).display()
+            )
+        },
         src::VERGENCE,
     )
     .caution = Some(src::CAUTION_CONTACT);
@@ -157,11 +161,13 @@ pub(super) fn compute(
             },
             c.span,
             "toric when |cylinder at the cornea| ≥ 0.75 D",
-            format!(
-                "|{}| {} 0.75",
-                n4(corneal.cylinder),
-                if toric { "≥" } else { "<" }
-            ),
+            || {
+                format!(
+                    "|{}| {} 0.75",
+                    n4(corneal.cylinder),
+                    if toric { "≥" } else { "<" }
+                )
+            },
             src::CONTACT_RULES,
         )
         .caution = Some(src::CAUTION_CONTACT);
@@ -184,11 +190,13 @@ pub(super) fn compute(
             } else {
                 "spherical equivalent at the corneal plane, to 0.25 D"
             },
-            format!(
-                "{} → {}",
-                sphcyl(&corneal).display(),
-                sphcyl(&lens).display()
-            ),
+            || {
+                format!(
+                    "{} → {}",
+                    sphcyl(&corneal).display(),
+                    sphcyl(&lens).display()
+                )
+            },
             src::CONTACT_RULES,
         )
         .caution = Some(src::CAUTION_CONTACT);
@@ -231,12 +239,14 @@ pub(super) fn compute(
         V::Power { dioptres: tear },
         bc.span,
         "K(base curve) − flat K, K = 337.5 / r(mm)",
-        format!(
-            "337.5 / {} − {} = {}",
-            n4(bc.value * 1000.0),
-            n4(flat.0),
-            n4(tear)
-        ),
+        || {
+            format!(
+                "337.5 / {} − {} = {}",
+                n4(bc.value * 1000.0),
+                n4(flat.0),
+                n4(tear)
+            )
+        },
         src::CONTACT_RULES,
     )
     .caution = Some(src::CAUTION_CONTACT);
@@ -247,13 +257,15 @@ pub(super) fn compute(
         V::Power { dioptres: p },
         bc.span,
         "corneal-plane power in the flat meridian − tear lens",
-        format!(
-            "{} (meridian {}) − {} = {}",
-            n4(corneal.meridian_power(flat.1)),
-            n4(flat.1),
-            n4(tear),
-            n4(p)
-        ),
+        || {
+            format!(
+                "{} (meridian {}) − {} = {}",
+                n4(corneal.meridian_power(flat.1)),
+                n4(flat.1),
+                n4(tear),
+                n4(p)
+            )
+        },
         src::CONTACT_RULES,
     )
     .caution = Some(src::CAUTION_CONTACT);
@@ -271,7 +283,7 @@ pub(super) fn compute(
         V::Power { dioptres: pr },
         bc.span,
         "to the nearest 0.25 D",
-        format!("{} → {}", n4(p), n4(pr)),
+        || format!("{} → {}", n4(p), n4(pr)),
         src::ROUNDING,
     )
     .caution = Some(src::CAUTION_CONTACT);
@@ -286,15 +298,17 @@ pub(super) fn compute(
         },
         k.span,
         "refractive cylinder − corneal cylinder, as power vectors (J0, J45)",
-        format!(
-            "({} x {}) − ({} x {}) = {} x {}",
-            n4(corneal.cylinder),
-            n4(corneal.axis),
-            n4(cc.cylinder),
-            n4(cc.axis),
-            n4(rc),
-            n4(ra)
-        ),
+        || {
+            format!(
+                "({} x {}) − ({} x {}) = {} x {}",
+                n4(corneal.cylinder),
+                n4(corneal.axis),
+                n4(cc.cylinder),
+                n4(cc.axis),
+                n4(rc),
+                n4(ra)
+            )
+        },
         src::THIBOS_1997,
     )
     .caution = Some(src::CAUTION_CONTACT);

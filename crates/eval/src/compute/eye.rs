@@ -68,7 +68,7 @@ fn refraction(
                 sphcyl(&form),
                 span,
                 "(S, C, θ) → (S + C, −C, θ ± 90)",
-                format!("{} → {}", show(&rx), show(&form)),
+                || format!("{} → {}", show(&rx), show(&form)),
                 src::THIBOS_1997,
             );
         }
@@ -80,18 +80,18 @@ fn refraction(
         V::Power { dioptres: m },
         span,
         "M = S + C/2",
-        format!("M = {} + ({})/2 = {}", n4(s), n4(c), n4(m)),
+        || format!("M = {} + ({})/2 = {}", n4(s), n4(c), n4(m)),
         src::THIBOS_1997,
     );
     let pv = rx.power_vector();
-    let t2 = format!("2θ = {}°", n4(2.0 * a));
+    let t2 = || format!("2θ = {}°", n4(2.0 * a));
     out.push(
         "vector-j0",
         "power vector J0",
         V::Power { dioptres: pv.j0 },
         span,
         "J0 = −(C/2)·cos 2θ",
-        format!("J0 = −({}/2)·cos({t2}) = {}", n4(c), n4(pv.j0)),
+        || format!("J0 = −({}/2)·cos({}) = {}", n4(c), t2(), n4(pv.j0)),
         src::THIBOS_1997,
     );
     out.push(
@@ -100,7 +100,7 @@ fn refraction(
         V::Power { dioptres: pv.j45 },
         span,
         "J45 = −(C/2)·sin 2θ",
-        format!("J45 = −({}/2)·sin({t2}) = {}", n4(c), n4(pv.j45)),
+        || format!("J45 = −({}/2)·sin({}) = {}", n4(c), t2(), n4(pv.j45)),
         src::THIBOS_1997,
     );
     let b = pv.blur_strength();
@@ -110,35 +110,39 @@ fn refraction(
         V::Power { dioptres: b },
         span,
         "B = √(M² + J0² + J45²)",
-        format!(
-            "B = √({}² + {}² + {}²) = {}",
-            n4(m),
-            n4(pv.j0),
-            n4(pv.j45),
-            n4(b)
-        ),
+        || {
+            format!(
+                "B = √({}² + {}² + {}²) = {}",
+                n4(m),
+                n4(pv.j0),
+                n4(pv.j45),
+                n4(b)
+            )
+        },
         src::THIBOS_1997,
     );
     let meridians = rx.principal_meridians();
     for (i, mer) in meridians.iter().enumerate() {
         out.push(
-            &format!("meridian-{}", i + 1),
-            &format!("principal meridian {}", i + 1),
+            format!("meridian-{}", i + 1),
+            format!("principal meridian {}", i + 1),
             V::Meridian {
                 dioptres: mer.power,
                 meridian: mer.meridian,
             },
             span,
             "F(φ) = S + C·sin²(φ − θ)",
-            format!(
-                "F({}) = {} + {}·sin²({} − {}) = {}",
-                n4(mer.meridian),
-                n4(s),
-                n4(c),
-                n4(mer.meridian),
-                n4(a),
-                n4(mer.power)
-            ),
+            || {
+                format!(
+                    "F({}) = {} + {}·sin²({} − {}) = {}",
+                    n4(mer.meridian),
+                    n4(s),
+                    n4(c),
+                    n4(mer.meridian),
+                    n4(a),
+                    n4(mer.power)
+                )
+            },
             src::POWER_MATRIX,
         );
     }
@@ -159,21 +163,23 @@ fn refraction(
             FarPoint::Infinity => V::Infinity,
             FarPoint::At { distance_m } => V::Distance {
                 metres: *distance_m,
-                from: from.to_owned(),
+                from: from.into(),
             },
         };
         out.push(
-            &format!("far-point-{}", i + 1),
-            &format!("far point, meridian {}", i + 1),
+            format!("far-point-{}", i + 1),
+            format!("far point, meridian {}", i + 1),
             value,
             span,
             "far point at 1/F from the correcting plane",
-            format!(
-                "1 / {} D = {} m (meridian {})",
-                n4(mer.power),
-                n4(1.0 / mer.power),
-                n4(mer.meridian)
-            ),
+            || {
+                format!(
+                    "1 / {} D = {} m (meridian {})",
+                    n4(mer.power),
+                    n4(1.0 / mer.power),
+                    n4(mer.meridian)
+                )
+            },
             src::VERGENCE,
         );
     }
@@ -243,7 +249,7 @@ fn refraction(
             sphcyl(&near),
             add.span,
             "near = distance sphere + add",
-            format!("{} + {} = {}", n4(s), n4(add.value), show(&near)),
+            || format!("{} + {} = {}", n4(s), n4(add.value), show(&near)),
             src::VERGENCE,
         );
     }
@@ -256,8 +262,8 @@ fn vertex_transfer(
     rx: &SphCyl,
     from: f64,
     to: f64,
-    name: &str,
-    label: &str,
+    name: &'static str,
+    label: &'static str,
     span: parax_syntax::Span,
     out: &mut Out<'_>,
     diags: &mut Vec<Diagnostic>,
@@ -267,21 +273,22 @@ fn vertex_transfer(
     let moved = transfer_sphcyl(rx, shift);
     let m = rx.principal_meridians();
     let mm = moved.principal_meridians();
-    let substituted = m
-        .iter()
-        .zip(mm.iter())
-        .map(|(a, b)| {
-            format!(
-                "{} / (1 − {}·{}) = {} @ {}",
-                n4(a.power),
-                n4(shift),
-                n4(a.power),
-                n4(b.power),
-                n4(a.meridian)
-            )
-        })
-        .collect::<Vec<_>>()
-        .join("; ");
+    let substituted = || {
+        m.iter()
+            .zip(mm.iter())
+            .map(|(a, b)| {
+                format!(
+                    "{} / (1 − {}·{}) = {} @ {}",
+                    n4(a.power),
+                    n4(shift),
+                    n4(a.power),
+                    n4(b.power),
+                    n4(a.meridian)
+                )
+            })
+            .collect::<Vec<_>>()
+            .join("; ")
+    };
     out.push(
         name,
         label,
@@ -294,12 +301,12 @@ fn vertex_transfer(
     .caution = Some(src::CAUTION_VERTEX);
     let rounded = round_sphcyl(&moved, 0.25);
     out.push(
-        &format!("{name}-rounded"),
-        &format!("{label}, to 0.25 D"),
+        format!("{name}-rounded"),
+        format!("{label}, to 0.25 D"),
         sphcyl(&rounded),
         span,
         "sphere and cylinder each rounded to the nearest 0.25 D",
-        format!("{} → {}", show(&moved), show(&rounded)),
+        || format!("{} → {}", show(&moved), show(&rounded)),
         src::ROUNDING,
     )
     .caution = Some(src::CAUTION_VERTEX);
@@ -383,7 +390,7 @@ fn keratometry(
             },
             span,
             "K = (n_k − 1) / r",
-            format!("K = ({} − 1) / {} m = {} D", index, n4(radius), n4(r.power)),
+            || format!("K = ({} − 1) / {} m = {} D", index, n4(radius), n4(r.power)),
             src::KERATOMETRIC,
         )
         .caution = caution;
@@ -396,12 +403,14 @@ fn keratometry(
         },
         span,
         "mean K = (K1 + K2) / 2",
-        format!(
-            "({} + {}) / 2 = {}",
-            n4(ast.flat.power),
-            n4(ast.steep.power),
-            n4(ast.mean_k)
-        ),
+        || {
+            format!(
+                "({} + {}) / 2 = {}",
+                n4(ast.flat.power),
+                n4(ast.steep.power),
+                n4(ast.mean_k)
+            )
+        },
         src::KERATOMETRIC,
     )
     .caution = caution;
@@ -414,13 +423,15 @@ fn keratometry(
         },
         span,
         "C = K_flat − K_steep, axis along the flat meridian (minus-cylinder form)",
-        format!(
-            "{} − {} = {} x {}",
-            n4(ast.flat.power),
-            n4(ast.steep.power),
-            n4(ast.cylinder),
-            n4(ast.axis)
-        ),
+        || {
+            format!(
+                "{} − {} = {} x {}",
+                n4(ast.flat.power),
+                n4(ast.steep.power),
+                n4(ast.cylinder),
+                n4(ast.axis)
+            )
+        },
         src::KERATOMETRIC,
     )
     .caution = caution;
@@ -436,26 +447,28 @@ fn keratometry(
         V::Text { text: kind.into() },
         span,
         "by the minus-cylinder axis: 180 ± 30 with-the-rule, 90 ± 30 against-the-rule",
-        format!("axis {} → {kind}", n4(ast.axis)),
+        || format!("axis {} → {kind}", n4(ast.axis)),
         src::ASTIGMATISM_BANDS,
     );
     if let (Some(back), Some(t)) = (&e.posterior_radius, &e.corneal_thickness) {
         let front_r = (k.value[0].radius + k.value[1].radius) / 2.0;
         let idx = CornealIndices::GULLSTRAND;
         let tp = total_corneal_power(front_r, back.value, t.value, idx);
-        let subst = format!(
-            "F1 = ({} − 1)/{} = {}; F2 = ({} − {})/{} = {}; F = F1 + F2 − ({}/{})·F1·F2 = {}",
-            idx.cornea,
-            n4(front_r),
-            n4(tp.front),
-            idx.aqueous,
-            idx.cornea,
-            n4(back.value),
-            n4(tp.back),
-            t.value,
-            idx.cornea,
-            n4(tp.total)
-        );
+        let subst = || {
+            format!(
+                "F1 = ({} − 1)/{} = {}; F2 = ({} − {})/{} = {}; F = F1 + F2 − ({}/{})·F1·F2 = {}",
+                idx.cornea,
+                n4(front_r),
+                n4(tp.front),
+                idx.aqueous,
+                idx.cornea,
+                n4(back.value),
+                n4(tp.back),
+                t.value,
+                idx.cornea,
+                n4(tp.total)
+            )
+        };
         out.push(
             "total-corneal-power",
             "total corneal power (thick cornea)",
@@ -473,7 +486,7 @@ fn keratometry(
             V::Power { dioptres: over },
             back.span,
             "mean K − F_total",
-            format!("{} − {} = {}", n4(ast.mean_k), n4(tp.total), n4(over)),
+            || format!("{} − {} = {}", n4(ast.mean_k), n4(tp.total), n4(over)),
             src::TANG_2006,
         );
     }

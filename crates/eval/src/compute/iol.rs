@@ -50,13 +50,15 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
             },
             a.span,
             "ACD = H + (0.62467·A − 68.747) − 3.336, H from corneal height (SRK/T)",
-            format!(
-                "L {} mm, K {}, A {} → ACD {} mm{height_note}",
-                n4(l),
-                n4(mean_k),
-                a.value,
-                n4(g.acd)
-            ),
+            || {
+                format!(
+                    "L {} mm, K {}, A {} → ACD {} mm{height_note}",
+                    n4(l),
+                    n4(mean_k),
+                    a.value,
+                    n4(g.acd)
+                )
+            },
             src::SRKT,
         )
         .caution = Some(src::CAUTION_IOL);
@@ -67,14 +69,16 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
             V::Power { dioptres: p },
             a.span,
             "SRK/T (Retzlaff, Sanders & Kraff 1990), V = 12 mm, target terms with minus signs",
-            format!(
-                "L {} mm, mean K {}, A {}, target {} → {}{height_note}",
-                n4(l),
-                n4(mean_k),
-                a.value,
-                n4(target),
-                n4(p)
-            ),
+            || {
+                format!(
+                    "L {} mm, mean K {}, A {}, target {} → {}{height_note}",
+                    n4(l),
+                    n4(mean_k),
+                    a.value,
+                    n4(target),
+                    n4(p)
+                )
+            },
             src::SRKT,
         )
         .caution = Some(src::CAUTION_IOL);
@@ -86,7 +90,7 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
                 V::Power { dioptres: r },
                 chosen.span,
                 "SRK/T solved for the refraction",
-                format!("IOL {} D → {}", n4(chosen.value), n4(r)),
+                || format!("IOL {} D → {}", n4(chosen.value), n4(r)),
                 src::SRKT,
             )
             .caution = Some(src::CAUTION_IOL);
@@ -101,14 +105,16 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
             V::Power { dioptres: p },
             elp.span,
             "P = n/(AL − ELP) − n/(n/(K + Z) − ELP), Z = R/(1 − 0.012·R), n = 1.336",
-            format!(
-                "AL {} mm, K {}, ELP {} mm, R {} → {}",
-                n4(l),
-                n4(mean_k),
-                n4(elp.value * 1000.0),
-                n4(target),
-                n4(p)
-            ),
+            || {
+                format!(
+                    "AL {} mm, K {}, ELP {} mm, R {} → {}",
+                    n4(l),
+                    n4(mean_k),
+                    n4(elp.value * 1000.0),
+                    n4(target),
+                    n4(p)
+                )
+            },
             src::IOL_VERGENCE,
         )
         .caution = Some(src::CAUTION_IOL);

@@ -17,14 +17,22 @@ use crate::diagnostic::Diagnostic;
 use crate::model::{Case, Eye, Frame, Side};
 use parax_optics::refraction::SphCyl;
 use parax_syntax::Span;
+use std::borrow::Cow;
+use std::sync::Arc;
 
-/// Every derived value and diagnostic of a case.
-pub fn compute(case: &Case, derived: &mut Vec<Derived>, diags: &mut Vec<Diagnostic>) {
+/// Every derived value and diagnostic of a case; the substituted formulas only
+/// when `derivations` is true.
+pub fn compute(
+    case: &Case,
+    derivations: bool,
+    derived: &mut Vec<Derived>,
+    diags: &mut Vec<Diagnostic>,
+) {
     let visits = Visits::new(case);
     for e in &case.eyes {
-        compute_eye(case, &visits, e, derived, diags);
+        eye_values(case, &visits, e, derivations, derived, diags);
     }
-    compute_others(case, derived, diags);
+    other_values(case, derivations, derived, diags);
 }
 
 /// The values of one eye block. Besides the block itself they depend on the
@@ -37,7 +45,18 @@ pub fn compute_eye(
     derived: &mut Vec<Derived>,
     diags: &mut Vec<Diagnostic>,
 ) {
-    let mut out = Out::new(eye::block_id(e), derived);
+    eye_values(case, visits, e, true, derived, diags);
+}
+
+fn eye_values(
+    case: &Case,
+    visits: &Visits<'_>,
+    e: &Eye,
+    derivations: bool,
+    derived: &mut Vec<Derived>,
+    diags: &mut Vec<Diagnostic>,
+) {
+    let mut out = Out::new(eye::block_id(e), derivations, derived);
     eye::compute(case, e, &mut out, diags);
     near::compute(case, e, &mut out);
     iol::compute(e, &mut out, diags);
@@ -47,14 +66,27 @@ pub fn compute_eye(
 /// The values of every block other than the eye blocks, in the order of
 /// [`compute`].
 pub fn compute_others(case: &Case, derived: &mut Vec<Derived>, diags: &mut Vec<Diagnostic>) {
+    other_values(case, true, derived, diags);
+}
+
+fn other_values(
+    case: &Case,
+    derivations: bool,
+    derived: &mut Vec<Derived>,
+    diags: &mut Vec<Diagnostic>,
+) {
     for s in &case.systems {
-        system::compute(s, &mut Out::new(system::block_id(s), derived), diags);
+        system::compute(
+            s,
+            &mut Out::new(system::block_id(s), derivations, derived),
+            diags,
+        );
     }
     for l in &case.spectacle_lenses {
         spectacle::compute(
             case,
             l,
-            &mut Out::new(spectacle::block_id(l), derived),
+            &mut Out::new(spectacle::block_id(l), derivations, derived),
             diags,
         );
     }
@@ -62,18 +94,23 @@ pub fn compute_others(case: &Case, derived: &mut Vec<Derived>, diags: &mut Vec<D
         spectacle::compute_frame(
             case,
             f,
-            &mut Out::new(spectacle::frame_id(f), derived),
+            &mut Out::new(spectacle::frame_id(f), derivations, derived),
             diags,
         );
     }
     for c in &case.contact_lenses {
-        contact::compute(case, c, &mut Out::new(contact::block_id(c), derived), diags);
+        contact::compute(
+            case,
+            c,
+            &mut Out::new(contact::block_id(c), derivations, derived),
+            diags,
+        );
     }
     for m in &case.model_eyes {
         model_eye::compute(
             case,
             m,
-            &mut Out::new(model_eye::block_id(m), derived),
+            &mut Out::new(model_eye::block_id(m), derivations, derived),
             diags,
         );
     }
@@ -103,35 +140,58 @@ pub(crate) fn sphcyl(rx: &SphCyl) -> DerivedValue {
 }
 
 /// Collects the derived values of one block under its block id.
+///
+/// The substituted formula of a value is passed to [`Out::push`] as a closure and
+/// run at once when `derivations` is set, never otherwise. Chosen over storing the
+/// closure in the value (`Arc<dyn Fn() -> String>`): a stored closure costs an
+/// allocation per value anyway and must copy what it captures, while the one
+/// front end that needs no derivations (`parax check`) knows it up front; every
+/// other caller ([`crate::evaluate`], JSON, hover, `eval --explain`) gets them
+/// written exactly as before.
 pub(crate) struct Out<'a> {
-    block: String,
+    block: Arc<str>,
+    derivations: bool,
     derived: &'a mut Vec<Derived>,
 }
 
 impl<'a> Out<'a> {
-    fn new(block: String, derived: &'a mut Vec<Derived>) -> Self {
-        Out { block, derived }
+    fn new(block: String, derivations: bool, derived: &'a mut Vec<Derived>) -> Self {
+        Out {
+            block: block.into(),
+            derivations,
+            derived,
+        }
     }
 
-    /// Add one value.
+    /// True when substituted formulas are written: a derivation that costs
+    /// work before [`Out::push`] (a chain shared by several values) checks this.
+    pub(crate) fn explains(&self) -> bool {
+        self.derivations
+    }
+
+    /// Add one value; `substituted` writes the formula with this case's numbers
+    /// (called only when derivations are wanted).
     #[allow(clippy::too_many_arguments)]
     pub(crate) fn push(
         &mut self,
-        name: &str,
-        label: &str,
+        name: impl Into<Cow<'static, str>>,
+        label: impl Into<Cow<'static, str>>,
         value: DerivedValue,
         span: Span,
         formula: &'static str,
-        substituted: String,
+        substituted: impl FnOnce() -> String,
         source: Source,
     ) -> &mut Derived {
-        let text = value.display();
+        let substituted = if self.derivations {
+            substituted()
+        } else {
+            String::new()
+        };
         self.derived.push(Derived {
-            key: format!("{}.{name}", self.block),
-            name: name.to_owned(),
-            label: label.to_owned(),
+            block: Arc::clone(&self.block),
+            name: name.into(),
+            label: label.into(),
             value,
-            text,
             span,
             derivation: Derivation {
                 formula,

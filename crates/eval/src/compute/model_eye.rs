@@ -87,7 +87,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
         V::Power { dioptres: r.power },
         span,
         "F = −C of the system matrix (refraction [[1,0],[−F,1]], transfer [[1,d/n],[0,1]])",
-        format!("{base}: F = {}", n4(r.power)),
+        || format!("{base}: F = {}", n4(r.power)),
         src::SCHEMATIC_EYES,
     );
     if s.len() >= 4 {
@@ -99,7 +99,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
             V::Power { dioptres: cornea },
             span,
             "equivalent power of surfaces 1 and 2 and the gap between them",
-            format!("{base}: {}", n4(cornea)),
+            || format!("{base}: {}", n4(cornea)),
             src::SCHEMATIC_EYES,
         );
         out.push(
@@ -108,7 +108,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
             V::Power { dioptres: lens },
             span,
             "equivalent power of surfaces 3 onward, object space index of the aqueous",
-            format!("{base}: {}", n4(lens)),
+            || format!("{base}: {}", n4(lens)),
             src::SCHEMATIC_EYES,
         );
     }
@@ -139,7 +139,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
                 },
                 span,
                 "cardinal points from the system matrix (n·D/C, n·(D − 1)/C, n'·(1 − A)/C, nodal = principal + (n' − n)/F)",
-                format!("{base}: {} mm from the cornea", n4(v * 1000.0)),
+                || format!("{base}: {} mm from the cornea", n4(v * 1000.0)),
                 src::MATRICES,
             );
         }
@@ -151,7 +151,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
         V::Length { metres: al },
         m.axial_length.as_ref().map_or(span, |a| a.span),
         "sum of the surface distances",
-        format!("{} mm", n4(al * 1000.0)),
+        || format!("{} mm", n4(al * 1000.0)),
         src::SCHEMATIC_EYES,
     );
     out.push(
@@ -162,7 +162,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
         },
         span,
         "K = A/B of the matrix from the cornea to the retina (far-point vergence)",
-        format!("{base}: K = {}", n4(r.ocular_refraction)),
+        || format!("{base}: K = {}", n4(r.ocular_refraction)),
         src::MATRICES,
     )
     .caution = Some(src::CAUTION_MODEL);
@@ -177,13 +177,15 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
         V::Power { dioptres: fs },
         span,
         "F_s = K / (1 + d·K)",
-        format!(
-            "{} / (1 + {}·{}) = {} at {whence}",
-            n4(r.ocular_refraction),
-            n4(vertex),
-            n4(r.ocular_refraction),
-            n4(fs)
-        ),
+        || {
+            format!(
+                "{} / (1 + {}·{}) = {} at {whence}",
+                n4(r.ocular_refraction),
+                n4(vertex),
+                n4(r.ocular_refraction),
+                n4(fs)
+            )
+        },
         src::VERGENCE,
     )
     .caution = Some(src::CAUTION_MODEL);

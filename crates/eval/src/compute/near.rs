@@ -44,7 +44,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
             V::Power { dioptres: v },
             span,
             "Hofstetter: min 15 − 0.25·age, mean 18.5 − 0.30·age, max 25 − 0.40·age",
-            format!("{f} with age {} = {}", n4(age.value), n4(v)),
+            || format!("{f} with age {} = {}", n4(age.value), n4(v)),
             src::HOFSTETTER,
         );
     }
@@ -57,12 +57,14 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
         },
         span,
         "add = 1/w − A/2 (w = 0.40 m), to 0.25 D, not below 0",
-        format!(
-            "1/0.40 − {}/2 = {} → {}",
-            n4(mean),
-            n4(1.0 / WORKING_DISTANCE - mean / 2.0),
-            n4(suggested)
-        ),
+        || {
+            format!(
+                "1/0.40 − {}/2 = {} → {}",
+                n4(mean),
+                n4(1.0 / WORKING_DISTANCE - mean / 2.0),
+                n4(suggested)
+            )
+        },
         src::HALF_RESERVE,
     )
     .caution = Some(crate::diagnostic::GENERAL_CAUTION);
@@ -89,14 +91,16 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
                 value,
                 add.span,
                 "far end 1/add, near end 1/(add + A), distance correction worn, mean amplitude",
-                format!(
-                    "add {}, A {}: 1/{} and 1/({} + {})",
-                    n4(add.value),
-                    n4(mean),
-                    n4(add.value),
-                    n4(add.value),
-                    n4(mean)
-                ),
+                || {
+                    format!(
+                        "add {}, A {}: 1/{} and 1/({} + {})",
+                        n4(add.value),
+                        n4(mean),
+                        n4(add.value),
+                        n4(add.value),
+                        n4(mean)
+                    )
+                },
                 src::HOFSTETTER,
             );
         }

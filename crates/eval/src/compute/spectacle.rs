@@ -325,7 +325,7 @@ pub(super) fn compute(
                 sphcyl(&worn),
                 pspan,
                 "F_t = (1 + sin²γ/2n)·A⁻ᵀ·F·A⁻¹, A the lens plane projected along the line of sight, cos γ = cos p·cos f; sphere: S(1 + sin²γ/2n), C = S'·tan²γ about the tilt axis",
-                format!(
+                || format!(
                     "{} tilted {}° pantoscopic, {}° face form ({}), {index_note} → {}",
                     sphcyl(&rx).display(),
                     n4(t.pantoscopic_deg),
@@ -391,7 +391,7 @@ pub(super) fn compute(
                 sphcyl(&order),
                 l.span,
                 "F = Aᵀ·F_rx·A/(1 + sin²γ/2n), F_rx moved to the frame's vertex by F' = F/(1 − d·F)",
-                steps.join("; "),
+                || steps.join("; "),
                 src::TILT_MATRIX,
             )
             .caution = Some(src::CAUTION_ORDER);
@@ -402,11 +402,13 @@ pub(super) fn compute(
                 sphcyl(&rounded),
                 l.span,
                 "sphere and cylinder each rounded to the nearest 0.25 D",
-                format!(
-                    "{} → {}",
-                    sphcyl(&order).display(),
-                    sphcyl(&rounded).display()
-                ),
+                || {
+                    format!(
+                        "{} → {}",
+                        sphcyl(&order).display(),
+                        sphcyl(&rounded).display()
+                    )
+                },
                 src::ROUNDING,
             )
             .caution = Some(src::CAUTION_ORDER);
@@ -420,7 +422,7 @@ pub(super) fn compute(
             horizontal(d.base_in),
             l.span,
             "P = −F·c (Prentice, power matrix; c in cm), plus any prescribed prism",
-            why.clone(),
+            || why.clone(),
             src::PRENTICE,
         );
     }
@@ -431,7 +433,7 @@ pub(super) fn compute(
             vertical(r),
             l.span,
             "P = −F·c (Prentice, power matrix; c in cm), plus any prescribed prism",
-            why.clone(),
+            || why.clone(),
             src::PRENTICE,
         );
         if p.reading_horizontal {
@@ -441,7 +443,7 @@ pub(super) fn compute(
                 horizontal(r.base_in),
                 l.span,
                 "P = −F·c (Prentice, power matrix; c in cm), plus any prescribed prism",
-                why.clone(),
+                || why.clone(),
                 src::PRENTICE,
             );
         }
@@ -455,7 +457,7 @@ pub(super) fn compute(
             V::Number { value: sm },
             l.span,
             "SM = 1/(1 − (t/n)·F1) × 1/(1 − h·Fv), h = vertex distance + 3 mm",
-            why,
+            || why,
             src::SPECTACLE_MAGNIFICATION,
         );
     }
@@ -525,7 +527,7 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
         V::Length { metres: e.total },
         e.span,
         "dec = √(((A + DBL − CD)/2)² + (OC height − B/2)²)",
-        why,
+        || why,
         src::BLANK_SIZE,
     );
     let mbs = lens_form::minimum_blank(e.effective_diameter, e.total);
@@ -535,13 +537,15 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
         V::Length { metres: mbs },
         e.span,
         "MBS = ED + 2 × decentration",
-        format!(
-            "{}; {} + 2 × {} = {} mm (laboratories often add about 2 mm for edging)",
-            e.ed_note,
-            n4(e.effective_diameter * 1000.0),
-            n4(e.total * 1000.0),
-            n4(mbs * 1000.0)
-        ),
+        || {
+            format!(
+                "{}; {} + 2 × {} = {} mm (laboratories often add about 2 mm for edging)",
+                e.ed_note,
+                n4(e.effective_diameter * 1000.0),
+                n4(e.total * 1000.0),
+                n4(mbs * 1000.0)
+            )
+        },
         src::BLANK_SIZE,
     );
     if let Some(b) = &l.blank_diameter {
@@ -579,7 +583,7 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
         V::Length { metres: f.centre },
         e.span,
         "minus: centre = minimum; plus: centre = edge + s_front − s_back, at the farthest point",
-        why.clone(),
+        || why.clone(),
         src::SAG,
     );
     out.push(
@@ -588,7 +592,7 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
         V::Length { metres: f.edge },
         e.span,
         "edge = centre + s_back − s_front at y = ED/2 + decentration",
-        why,
+        || why,
         src::SAG,
     );
 }
@@ -612,7 +616,7 @@ fn thickness(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) 
         V::Length { metres: f.centre },
         span,
         "minus: centre = minimum; plus: centre = edge + s_front − s_back",
-        why.clone(),
+        || why.clone(),
         src::SAG,
     );
     out.push(
@@ -621,7 +625,7 @@ fn thickness(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) 
         V::Length { metres: f.edge },
         span,
         "edge = centre + s_back − s_front",
-        why,
+        || why,
         src::SAG,
     );
     let (min_c, min_e) = minimums(l, f.index);
@@ -755,18 +759,20 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
         );
         out.push(
             name,
-            &format!("{what} within {}", verify::STANDARD),
+            format!("{what} within {}", verify::STANDARD),
             V::Text {
                 text: if pass { "pass" } else { "fail" }.into(),
             },
             m.span,
             "|measured − ordered| ≤ tolerance of ANSI Z80.1-2015",
-            format!(
-                "ordered {} ± {} → allowed {band}; measured {}",
-                n4(c.ordered),
-                n4(c.tolerance),
-                n4(c.measured)
-            ),
+            || {
+                format!(
+                    "ordered {} ± {} → allowed {band}; measured {}",
+                    n4(c.ordered),
+                    n4(c.tolerance),
+                    n4(c.measured)
+                )
+            },
             src::ANSI_Z80_1_2015,
         );
         if !pass {
@@ -788,13 +794,13 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
     }
     out.push(
         "verification",
-        &format!("received lens against the order ({})", verify::STANDARD),
+        format!("received lens against the order ({})", verify::STANDARD),
         V::Text {
             text: if all { "pass" } else { "fail" }.into(),
         },
         l.measured.as_ref().map_or(l.span, |m| m.span),
         "every component compared is within its tolerance",
-        compared.join("; "),
+        || compared.join("; "),
         src::ANSI_Z80_1_2015,
     );
 }
@@ -815,7 +821,7 @@ pub(super) fn compute_frame(
             V::Length { metres: drop },
             t.span,
             "drop ≈ 0.5 mm per degree of pantoscopic tilt",
-            format!("0.5 mm × {} = {} mm", n4(t.value), n4(drop * 1000.0)),
+            || format!("0.5 mm × {} = {} mm", n4(t.value), n4(drop * 1000.0)),
             src::OC_DROP,
         );
     }
@@ -826,7 +832,7 @@ pub(super) fn compute_frame(
             V::Length { metres: h },
             f.fitting_height.as_ref().map_or(f.span, |h| h.span),
             "OC height = fitting height − optical-centre drop (0.5 mm per degree of pantoscopic tilt)",
-            format!(
+            || format!(
                 "{} mm − {} mm = {} mm",
                 n4((h + drop) * 1000.0),
                 n4(drop * 1000.0),
@@ -853,16 +859,18 @@ pub(super) fn compute_frame(
             "vertical prism imbalance at the reading point",
             V::Prism {
                 dioptres: imb,
-                base: String::new(),
+                base: "".into(),
             },
             span,
             "|P_v(right) − P_v(left)| with base up positive",
-            format!(
-                "right {:+.4}Δ, left {:+.4}Δ (base up +) → {}Δ",
-                a.base_up,
-                b.base_up,
-                n4(imb)
-            ),
+            || {
+                format!(
+                    "right {:+.4}Δ, left {:+.4}Δ (base up +) → {}Δ",
+                    a.base_up,
+                    b.base_up,
+                    n4(imb)
+                )
+            },
             src::PRISM_TOLERANCE,
         );
         if imb > prism::VERTICAL_TOLERANCE + 1e-9 {
@@ -895,7 +903,7 @@ pub(super) fn compute_frame(
             horizontal(net),
             span,
             "P_h(right) + P_h(left), base in positive",
-            format!("{:+.4}Δ + {:+.4}Δ = {}Δ", a.base_in, b.base_in, n4(net)),
+            || format!("{:+.4}Δ + {:+.4}Δ = {}Δ", a.base_in, b.base_in, n4(net)),
             src::PRISM_TOLERANCE,
         );
         if net.abs() > prism::HORIZONTAL_TOLERANCE + 1e-9 {
@@ -924,12 +932,14 @@ pub(super) fn compute_frame(
             V::Number { value: pct },
             f.span,
             "(SM_right / SM_left − 1) × 100",
-            format!(
-                "right: {wa}; left: {wb}; ({} / {} − 1) × 100 = {}",
-                n4(a),
-                n4(b),
-                n4(pct)
-            ),
+            || {
+                format!(
+                    "right: {wa}; left: {wb}; ({} / {} − 1) × 100 = {}",
+                    n4(a),
+                    n4(b),
+                    n4(pct)
+                )
+            },
             src::ANISEIKONIA,
         );
     }
@@ -988,11 +998,11 @@ fn mounted_pair(
         "vertical prism imbalance of the received pair at the pupils",
         V::Prism {
             dioptres: vertical,
-            base: String::new(),
+            base: "".into(),
         },
         span,
         "|P_v(right) − P_v(left)|, P = −F_measured·c plus measured − ordered prism",
-        why("base up +", pr.base_up, pl.base_up, vertical),
+        || why("base up +", pr.base_up, pl.base_up, vertical),
         src::MOUNTED_PAIR,
     );
     out.push(
@@ -1001,7 +1011,7 @@ fn mounted_pair(
         self::horizontal(horizontal),
         span,
         "P_h(right) + P_h(left), base in +, P = −F_measured·c plus measured − ordered prism",
-        why("base in +", pr.base_in, pl.base_in, horizontal),
+        || why("base in +", pr.base_in, pl.base_in, horizontal),
         src::MOUNTED_PAIR,
     );
     let checks = [
@@ -1068,7 +1078,7 @@ fn mounted_pair(
         };
         out.push(
             name,
-            &format!("mounted pair {what} within {}", verify::STANDARD),
+            format!("mounted pair {what} within {}", verify::STANDARD),
             V::Text {
                 text: match pass {
                     Some(true) => "pass",
@@ -1079,7 +1089,7 @@ fn mounted_pair(
             },
             span,
             "ANSI Z80.1-2015 mounted pair: vertical ≤ 0.33Δ (≤ 3.375 D), horizontal ≤ 0.67Δ (≤ 2.75 D)",
-            detail,
+            || detail,
             src::MOUNTED_PAIR,
         );
         if pass == Some(false) {

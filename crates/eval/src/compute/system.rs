@@ -22,7 +22,7 @@ fn place(p: ImagePlace, label: &str) -> V {
             after_element_m, ..
         } => V::Distance {
             metres: after_element_m,
-            from: label.to_owned(),
+            from: label.to_owned().into(),
         },
     }
 }
@@ -95,7 +95,11 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
     };
     let elements: Vec<Element> = s.optics_elements();
     let t = trace(object, &elements, 1.0);
+    // The step-along chain is shared by several derivations and grows per
+    // element: build it only when derivations are written.
+    let explain = out.explains();
     let mut chain = match object {
+        _ if !explain => String::new(),
         Object::AtInfinity => "L = 0 (object at infinity)".to_owned(),
         Object::Distance { before_first_m } => format!(
             "L = 1/(−{}) = {}",
@@ -128,38 +132,42 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         };
         let power = &power;
         let span = el.span;
-        let line = format!(
-            "{label}: L = {}, L' = L + F = {} + {} = {}",
-            n4(step.incident_vergence),
-            n4(step.incident_vergence),
-            n4(*power),
-            n4(step.emergent_vergence)
-        );
-        chain.push_str("; ");
-        chain.push_str(&line);
+        let line = || {
+            format!(
+                "{label}: L = {}, L' = L + F = {} + {} = {}",
+                n4(step.incident_vergence),
+                n4(step.incident_vergence),
+                n4(*power),
+                n4(step.emergent_vergence)
+            )
+        };
+        if explain {
+            chain.push_str("; ");
+            chain.push_str(&line());
+        }
         out.push(
-            &format!("{label}.vergence-in"),
-            &format!("vergence arriving at {label}"),
+            format!("{label}.vergence-in"),
+            format!("vergence arriving at {label}"),
             V::Power {
                 dioptres: step.incident_vergence,
             },
             span,
             "L2 = L1' / (1 − (d/n)·L1')",
-            chain.clone(),
+            || chain.clone(),
             src::VERGENCE,
         );
         out.push(
-            &format!("{label}.vergence-out"),
-            &format!("vergence leaving {label}"),
+            format!("{label}.vergence-out"),
+            format!("vergence leaving {label}"),
             V::Power {
                 dioptres: step.emergent_vergence,
             },
             span,
             "L' = L + F",
-            line.clone(),
+            line,
             src::VERGENCE,
         );
-        let image_sub = match step.image {
+        let image_sub = || match step.image {
             ImagePlace::AtInfinity => "L' = 0: image at infinity".to_owned(),
             ImagePlace::At {
                 after_element_m, ..
@@ -174,8 +182,8 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             }
         };
         out.push(
-            &format!("{label}.image"),
-            &format!("image formed by {label}"),
+            format!("{label}.image"),
+            format!("image formed by {label}"),
             place(step.image, label),
             span,
             "l' = n / L'",
@@ -184,17 +192,19 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         );
         if let Some(m) = step.magnification {
             out.push(
-                &format!("{label}.magnification"),
-                &format!("lateral magnification at {label}"),
+                format!("{label}.magnification"),
+                format!("lateral magnification at {label}"),
                 V::Number { value: m },
                 span,
                 "m = L / L'",
-                format!(
-                    "m = {} / {} = {}",
-                    n4(step.incident_vergence),
-                    n4(step.emergent_vergence),
-                    n4(m)
-                ),
+                || {
+                    format!(
+                        "m = {} / {} = {}",
+                        n4(step.incident_vergence),
+                        n4(step.emergent_vergence),
+                        n4(m)
+                    )
+                },
                 src::VERGENCE,
             );
         }
@@ -207,22 +217,23 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         place(t.final_image, last_label),
         last_span,
         "step-along vergence through every element",
-        chain.clone(),
+        || chain.clone(),
         src::VERGENCE,
     );
     if let Some(m) = t.total_magnification {
-        let factors: Vec<String> = t
-            .steps
-            .iter()
-            .filter_map(|s| s.magnification.map(n4))
-            .collect();
+        let factors = || -> Vec<String> {
+            t.steps
+                .iter()
+                .filter_map(|s| s.magnification.map(n4))
+                .collect()
+        };
         out.push(
             "magnification",
             "total lateral magnification",
             V::Number { value: m },
             last_span,
             "m = m1 · m2 · …",
-            format!("{} = {}", factors.join(" · "), n4(m)),
+            || format!("{} = {}", factors().join(" · "), n4(m)),
             src::VERGENCE,
         );
     }
@@ -240,22 +251,26 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
     out.push(
         "image-kind",
         "kind of final image",
-        V::Text { text: kind.clone() },
+        V::Text {
+            text: kind.clone().into(),
+        },
         last_span,
         "real when the final vergence L' > 0; erect when m > 0",
-        kind.clone(),
+        || kind.clone(),
         src::VERGENCE,
     );
     // Powers by matrices, up to the last lens (a trailing gap is image space).
     let m = system_matrix(&elements[..=last_i]);
     let p = system_powers(&m);
-    let msub = format!(
-        "A = {}, B = {}, C = {}, D = {}",
-        n4(m.a),
-        n4(m.b),
-        n4(m.c),
-        n4(m.d)
-    );
+    let msub = || {
+        format!(
+            "A = {}, B = {}, C = {}, D = {}",
+            n4(m.a),
+            n4(m.b),
+            n4(m.c),
+            n4(m.d)
+        )
+    };
     for (name, label, formula, value) in [
         (
             "equivalent-power",
@@ -283,7 +298,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
                 V::Power { dioptres: value },
                 last_span,
                 formula,
-                format!("{msub}; {formula} = {}", n4(value)),
+                || format!("{}; {formula} = {}", msub(), n4(value)),
                 src::MATRICES,
             );
         }

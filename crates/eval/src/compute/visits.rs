@@ -106,12 +106,14 @@ pub(super) fn compute(
             V::Power { dioptres: se },
             span,
             "|M_right − M_left|",
-            format!(
-                "|{} − {}| = {}",
-                n4(r.spherical_equivalent()),
-                n4(l.spherical_equivalent()),
-                n4(se)
-            ),
+            || {
+                format!(
+                    "|{} − {}| = {}",
+                    n4(r.spherical_equivalent()),
+                    n4(l.spherical_equivalent()),
+                    n4(se)
+                )
+            },
             src::THIBOS_1997,
         );
         let mut worst: f64 = se;
@@ -119,17 +121,19 @@ pub(super) fn compute(
             let d = (r.meridian_power(mer) - l.meridian_power(mer)).abs();
             worst = worst.max(d);
             out.push(
-                &format!("anisometropia-{}", mer as i64),
-                &format!("anisometropia in meridian {}", mer as i64),
+                format!("anisometropia-{}", mer as i64),
+                format!("anisometropia in meridian {}", mer as i64),
                 V::Power { dioptres: d },
                 span,
                 "|F_right(φ) − F_left(φ)|, F(φ) = S + C·sin²(φ − θ)",
-                format!(
-                    "|{} − {}| = {}",
-                    n4(r.meridian_power(mer)),
-                    n4(l.meridian_power(mer)),
-                    n4(d)
-                ),
+                || {
+                    format!(
+                        "|{} − {}| = {}",
+                        n4(r.meridian_power(mer)),
+                        n4(l.meridian_power(mer)),
+                        n4(d)
+                    )
+                },
                 src::POWER_MATRIX,
             );
         }
@@ -179,12 +183,14 @@ pub(super) fn compute(
             V::Power { dioptres: v },
             span,
             "power vector now − power vector at the previous visit",
-            format!(
-                "{} → {}: {}",
-                since,
-                e.date.clone().unwrap_or_default(),
-                n4(v)
-            ),
+            || {
+                format!(
+                    "{} → {}: {}",
+                    since,
+                    e.date.clone().unwrap_or_default(),
+                    n4(v)
+                )
+            },
             src::THIBOS_1997,
         );
     }
@@ -194,7 +200,7 @@ pub(super) fn compute(
         V::Number { value: years },
         span,
         "days / 365.25",
-        format!("{} days / 365.25 = {}", now - then, n4(years)),
+        || format!("{} days / 365.25 = {}", now - then, n4(years)),
         src::THIBOS_1997,
     );
     let per_year = change.m / years;
@@ -204,7 +210,7 @@ pub(super) fn compute(
         V::Power { dioptres: per_year },
         span,
         "ΔM / years",
-        format!("{} / {} = {}", n4(change.m), n4(years), n4(per_year)),
+        || format!("{} / {} = {}", n4(change.m), n4(years), n4(per_year)),
         src::THIBOS_1997,
     );
     let blur_per_year = change.blur_strength() / years;
@@ -216,12 +222,14 @@ pub(super) fn compute(
         },
         span,
         "√(ΔM² + ΔJ0² + ΔJ45²) / years",
-        format!(
-            "{} / {} = {}",
-            n4(change.blur_strength()),
-            n4(years),
-            n4(blur_per_year)
-        ),
+        || {
+            format!(
+                "{} / {} = {}",
+                n4(change.blur_strength()),
+                n4(years),
+                n4(blur_per_year)
+            )
+        },
         src::THIBOS_1997,
     );
     if blur_per_year >= 0.5 - 1e-9 {

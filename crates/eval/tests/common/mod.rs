@@ -12,11 +12,11 @@ pub fn eval(src: &str) -> Evaluation {
 pub fn get<'a>(ev: &'a Evaluation, key: &str) -> &'a DerivedValue {
     &ev.derived
         .iter()
-        .find(|d| d.key == key)
+        .find(|d| d.is_key(key))
         .unwrap_or_else(|| {
             panic!(
                 "no {key}; have {:?}",
-                ev.derived.iter().map(|d| &d.key).collect::<Vec<_>>()
+                ev.derived.iter().map(|d| d.key()).collect::<Vec<_>>()
             )
         })
         .value
