@@ -139,10 +139,11 @@ impl Parsed {
             index: old_index,
             ..
         } = self;
-        let index = LineIndex::new(&source);
         // Old lines `first..=last` are replaced by new lines `first..=new_last`.
         let first = old_index.line_of(edit.start);
         let last = old_index.line_of(edit.end);
+        let mut index = old_index;
+        index.edit(edit.clone(), new_text);
         let new_last = index.line_of(edit.start + new_text.len());
         let delta = new_text.len() as isize - edit.len() as isize;
         let mut errors = Vec::new();
