@@ -209,6 +209,10 @@ fn bench(c: &mut Criterion) {
                 b.iter_custom(|iters| (0..iters).map(|_| s.edit()).sum());
             });
             let mut all = s.samples.clone();
+            if all.is_empty() {
+                // Left out by a filter on the command line.
+                continue;
+            }
             all.sort();
             report.push(format!(
                 "{id}: median {:?}, p90 {:?} ({} samples)",

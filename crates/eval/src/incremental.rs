@@ -398,134 +398,155 @@ fn evaluate_with(
     if !compute_ok {
         old_eye_memos.clear();
     }
-    // The old list is edited in place: `derived[..w]` is final, and from `w` on
-    // it still holds the old values from old index `r`. A reused eye's values stay
-    // where they are (only their spans move); the values computed afresh wait in
-    // `fresh_values` and replace the unused old values before the next reused eye,
-    // which moves nothing when their count is unchanged (the usual edit).
-    let (mut w, mut r) = (0, 0);
-    let mut fresh_values: Vec<Derived> = Vec::new();
-    // Eyes computed afresh whose memo ranges still count from the start of `fresh_values`.
-    let mut waiting: Vec<usize> = Vec::new();
-    let flush = |derived: &mut Vec<Derived>,
-                 eyes: &mut Vec<EyeMemo>,
-                 waiting: &mut Vec<usize>,
-                 fresh: &mut Vec<Derived>,
-                 w: &mut usize,
-                 until: usize| {
-        let n = fresh.len();
-        derived.splice(*w..until, fresh.drain(..));
-        for k in waiting.drain(..) {
-            let m = &mut eyes[k];
-            m.derived = m.derived.start + *w..m.derived.end + *w;
-        }
-        *w += n;
-    };
-    let mut eyes: Vec<EyeMemo> = Vec::with_capacity(case.eyes.len());
-    let mut eye_expects = Vec::new();
-    for (i, e) in case.eyes.iter().enumerate() {
-        let span = parsed.blocks[block_of_eye[i]].span;
-        let (partner, previous) = match &all_visits {
-            Some(v) => (v.partner(e), v.previous(e)),
-            None => (old_eye_memos[i].partner, old_eye_memos[i].previous),
+    let done = same_visits
+        && in_place(
+            &case,
+            &parsed.blocks,
+            &block_of_eye,
+            eyes_before..after,
+            delta,
+            &mut derived,
+            &mut old_eye_memos,
+        );
+    let (mut derived, eyes) = if done {
+        let end = old_eye_memos.last().map_or(0, |m| m.derived.end);
+        derived.truncate(end);
+        (derived, old_eye_memos)
+    } else {
+        // The old list is edited in place: `derived[..w]` is final, and from `w` on
+        // it still holds the old values from old index `r`. A reused eye's values stay
+        // where they are (only their spans move); the values computed afresh wait in
+        // `fresh_values` and replace the unused old values before the next reused eye,
+        // which moves nothing when their count is unchanged (the usual edit).
+        let (mut w, mut r) = (0, 0);
+        let mut fresh_values: Vec<Derived> = Vec::new();
+        // Eyes computed afresh whose memo ranges still count from the start of `fresh_values`.
+        let mut waiting: Vec<usize> = Vec::new();
+        let flush = |derived: &mut Vec<Derived>,
+                     eyes: &mut Vec<EyeMemo>,
+                     waiting: &mut Vec<usize>,
+                     fresh: &mut Vec<Derived>,
+                     w: &mut usize,
+                     until: usize| {
+            let n = fresh.len();
+            derived.splice(*w..until, fresh.drain(..));
+            for k in waiting.drain(..) {
+                let m = &mut eyes[k];
+                m.derived = m.derived.start + *w..m.derived.end + *w;
+            }
+            *w += n;
         };
-        // The old result of this eye, if it and the eyes it depends on are
-        // unchanged and are the same eyes as before.
-        let found = old_eye(i).and_then(|j| {
-            let m = old_eye_memos.get(j)?;
-            let same_dep = |new: Option<usize>, old: Option<usize>| match (new, old) {
-                (None, None) => true,
-                (Some(n), Some(o)) => old_eye(n) == Some(o),
-                _ => false,
+        let mut eyes: Vec<EyeMemo> = Vec::with_capacity(case.eyes.len());
+        for (i, e) in case.eyes.iter().enumerate() {
+            let span = parsed.blocks[block_of_eye[i]].span;
+            let (partner, previous) = match &all_visits {
+                Some(v) => (v.partner(e), v.previous(e)),
+                None => (old_eye_memos[i].partner, old_eye_memos[i].previous),
             };
-            (m.reusable
-                && m.derived.start >= r
-                && same_dep(partner, m.partner)
-                && same_dep(previous, m.previous))
-            .then_some(j)
-        });
-        let memo = match found {
-            Some(j) => {
-                let m = &old_eye_memos[j];
-                let by = span.start as isize - m.span.start as isize;
-                // Old values r..m.derived.start (of eyes not reused) give way.
-                let until = w + (m.derived.start - r);
-                flush(
-                    &mut derived,
-                    &mut eyes,
-                    &mut waiting,
-                    &mut fresh_values,
-                    &mut w,
-                    until,
-                );
-                let start = w;
-                if by != 0 {
-                    for d in &mut derived[start..start + m.derived.len()] {
-                        d.span = d.span.moved(by);
-                    }
-                }
-                w += m.derived.len();
-                r = m.derived.end;
-                EyeMemo {
-                    span,
-                    partner,
-                    previous,
-                    derived: start..w,
-                    diags: shifted(&m.diags, by).collect(),
-                    expects: shifted(&m.expects, by).collect(),
-                    reusable: true,
-                }
-            }
-            None => {
-                let start = fresh_values.len();
-                let mut diags = Vec::new();
-                let local;
-                let visits = match &all_visits {
-                    Some(v) => v,
-                    None => {
-                        let mut these: Vec<usize> =
-                            [Some(i), partner, previous].into_iter().flatten().collect();
-                        these.sort_unstable();
-                        these.dedup();
-                        local = Visits::of(&case, these);
-                        &local
-                    }
+            // The old result of this eye, if it and the eyes it depends on are
+            // unchanged and are the same eyes as before.
+            let found = old_eye(i).and_then(|j| {
+                let m = old_eye_memos.get(j)?;
+                let same_dep = |new: Option<usize>, old: Option<usize>| match (new, old) {
+                    (None, None) => true,
+                    (Some(n), Some(o)) => old_eye(n) == Some(o),
+                    _ => false,
                 };
-                compute::compute_eye(&case, visits, e, &mut fresh_values, &mut diags);
-                let mut expects = Vec::new();
-                let id = compute::eye_block_id(e);
-                expect::check(&id, &e.expects, &fresh_values[start..], &mut expects);
-                let reusable = fresh_values[start..].iter().all(|d| inside(d.span, span))
-                    && diags.iter().chain(&expects).all(|d| diag_inside(d, span));
-                waiting.push(eyes.len());
-                EyeMemo {
-                    span,
-                    partner,
-                    previous,
-                    derived: start..fresh_values.len(),
-                    diags,
-                    expects,
-                    reusable,
+                (m.reusable
+                    && m.derived.start >= r
+                    && same_dep(partner, m.partner)
+                    && same_dep(previous, m.previous))
+                .then_some(j)
+            });
+            let memo = match found {
+                Some(j) => {
+                    let m = &old_eye_memos[j];
+                    let by = span.start as isize - m.span.start as isize;
+                    // Old values r..m.derived.start (of eyes not reused) give way.
+                    let until = w + (m.derived.start - r);
+                    flush(
+                        &mut derived,
+                        &mut eyes,
+                        &mut waiting,
+                        &mut fresh_values,
+                        &mut w,
+                        until,
+                    );
+                    let start = w;
+                    if by != 0 {
+                        for d in &mut derived[start..start + m.derived.len()] {
+                            d.span = d.span.moved(by);
+                        }
+                    }
+                    w += m.derived.len();
+                    r = m.derived.end;
+                    EyeMemo {
+                        span,
+                        partner,
+                        previous,
+                        derived: start..w,
+                        diags: shifted(&m.diags, by).collect(),
+                        expects: shifted(&m.expects, by).collect(),
+                        reusable: true,
+                    }
                 }
-            }
-        };
-        diagnostics.extend(memo.diags.iter().cloned());
-        eye_expects.extend(memo.expects.iter().cloned());
-        eyes.push(memo);
+                None => {
+                    let start = fresh_values.len();
+                    let mut diags = Vec::new();
+                    let local;
+                    let visits = match &all_visits {
+                        Some(v) => v,
+                        None => {
+                            let mut these: Vec<usize> =
+                                [Some(i), partner, previous].into_iter().flatten().collect();
+                            these.sort_unstable();
+                            these.dedup();
+                            local = Visits::of(&case, these);
+                            &local
+                        }
+                    };
+                    compute::compute_eye(&case, visits, e, &mut fresh_values, &mut diags);
+                    let mut expects = Vec::new();
+                    let id = compute::eye_block_id(e);
+                    expect::check(&id, &e.expects, &fresh_values[start..], &mut expects);
+                    let reusable = fresh_values[start..].iter().all(|d| inside(d.span, span))
+                        && diags.iter().chain(&expects).all(|d| diag_inside(d, span));
+                    waiting.push(eyes.len());
+                    EyeMemo {
+                        span,
+                        partner,
+                        previous,
+                        derived: start..fresh_values.len(),
+                        diags,
+                        expects,
+                        reusable,
+                    }
+                }
+            };
+            eyes.push(memo);
+        }
+        // The remaining old values (eyes not reused, and the other blocks') go.
+        let end = derived.len();
+        flush(
+            &mut derived,
+            &mut eyes,
+            &mut waiting,
+            &mut fresh_values,
+            &mut w,
+            end,
+        );
+        (derived, eyes)
+    };
+    // Diagnostics in the order of a full evaluation: each eye's, the other
+    // blocks', then the eyes' `expect` lines.
+    for m in &eyes {
+        diagnostics.extend(m.diags.iter().cloned());
     }
-    // The remaining old values (eyes not reused, and the other blocks') go.
-    let end = derived.len();
-    flush(
-        &mut derived,
-        &mut eyes,
-        &mut waiting,
-        &mut fresh_values,
-        &mut w,
-        end,
-    );
     let others = derived.len();
     compute::compute_others(&case, &mut derived, &mut diagnostics);
-    diagnostics.extend(eye_expects);
+    for m in &eyes {
+        diagnostics.extend(m.expects.iter().cloned());
+    }
     crate::check_others(&case, &derived[others..], &mut diagnostics);
     diagnostics.sort_by_key(|d| (d.span.start, d.severity));
     // Values outside their eye block, for `values_starting_in`.
@@ -550,6 +571,83 @@ fn evaluate_with(
             loose,
         },
     }
+}
+
+/// The usual edit, done in place: the eyes read again have the same sides,
+/// dates and presence of a refraction as before (so every eye keeps its
+/// partner and previous visit) and `memos` holds every eye's old result. Only
+/// the eyes read again, the eyes that depend on them and those whose results
+/// point outside their block are computed again, each indexed only with its
+/// partner and previous visit; their values are written over the old ones, and
+/// the results of the eyes after the edit are moved by `delta` bytes. Returns
+/// false, having changed nothing, when a recomputed eye has a different number
+/// of values than before (then the general path runs).
+fn in_place(
+    case: &Case,
+    blocks: &[parax_syntax::Block],
+    block_of_eye: &[usize],
+    changed: Range<usize>,
+    delta: isize,
+    derived: &mut [Derived],
+    memos: &mut [EyeMemo],
+) -> bool {
+    if memos.len() != case.eyes.len() {
+        return false;
+    }
+    let touched = |x: Option<usize>| x.is_some_and(|x| changed.contains(&x));
+    let redo: Vec<usize> = (0..memos.len())
+        .filter(|&i| {
+            let m = &memos[i];
+            changed.contains(&i) || !m.reusable || touched(m.partner) || touched(m.previous)
+        })
+        .collect();
+    let mut results = Vec::with_capacity(redo.len());
+    for &i in &redo {
+        let e = &case.eyes[i];
+        let m = &memos[i];
+        let span = blocks[block_of_eye[i]].span;
+        let mut these: Vec<usize> = [Some(i), m.partner, m.previous]
+            .into_iter()
+            .flatten()
+            .collect();
+        these.sort_unstable();
+        these.dedup();
+        let visits = Visits::of(case, these);
+        let mut values = Vec::with_capacity(m.derived.len());
+        let mut diags = Vec::new();
+        compute::compute_eye(case, &visits, e, &mut values, &mut diags);
+        if values.len() != m.derived.len() {
+            return false;
+        }
+        let mut expects = Vec::new();
+        expect::check(&compute::eye_block_id(e), &e.expects, &values, &mut expects);
+        let reusable = values.iter().all(|d| inside(d.span, span))
+            && diags.iter().chain(&expects).all(|d| diag_inside(d, span));
+        results.push((values, diags, expects, reusable, span));
+    }
+    // Every eye after the edit moves (the recomputed ones are replaced below).
+    if delta != 0 {
+        for m in memos[changed.end..].iter_mut() {
+            m.span = m.span.moved(delta);
+            for d in &mut derived[m.derived.clone()] {
+                d.span = d.span.moved(delta);
+            }
+            for d in m.diags.iter_mut().chain(&mut m.expects) {
+                shift_diag(d, delta);
+            }
+        }
+    }
+    for (&i, (values, diags, expects, reusable, span)) in redo.iter().zip(results) {
+        let m = &mut memos[i];
+        for (slot, v) in derived[m.derived.clone()].iter_mut().zip(values) {
+            *slot = v;
+        }
+        m.diags = diags;
+        m.expects = expects;
+        m.reusable = reusable;
+        m.span = span;
+    }
+    true
 }
 
 /// See [`Evaluation::values_starting_in`].

@@ -1,8 +1,11 @@
 //! The `LanguageServer` implementation. Edits are applied under a plain mutex
 //! before any `.await`, so concurrently running handlers never reorder them.
-//! Evaluation runs on a worker task (and on the blocking pool): a change only
-//! marks its document dirty and wakes the worker, so changes that arrive while
-//! one evaluation runs are merged and only the newest text is evaluated.
+//! Evaluation runs on a worker task, never in a handler: a change only marks its
+//! document dirty and wakes the worker, so changes that arrive while one
+//! evaluation runs are merged and only the newest text is evaluated. A first
+//! reading of a document goes to the blocking pool; a small update
+//! (proportional to the blocks the edits touched) runs on the worker task
+//! itself, between two messages.
 
 use crate::convert;
 use crate::documents::apply_change;
@@ -133,16 +136,27 @@ async fn worker(client: Client, state: Arc<Mutex<State>>, wake: Arc<Notify>) {
             let Some((key, uri, text, version, unit, previous)) = job else {
                 continue;
             };
-            let Ok(a) = tokio::task::spawn_blocking(move || match previous {
-                // Unshared unless a request is reading it right now.
-                Some(p) => Arc::try_unwrap(p)
-                    .unwrap_or_else(|p| (*p).clone())
-                    .update(&text),
-                None => Analysis::new(&text),
-            })
-            .await
-            else {
-                continue;
+            // Unshared unless a request is reading it right now.
+            let previous = previous.map(|p| Arc::try_unwrap(p).unwrap_or_else(|p| (*p).clone()));
+            let a = match previous {
+                // An update re-reads and recomputes only the blocks the edits
+                // touched (a fraction of a millisecond even in a 20,000-line
+                // file), so a small one runs right here, between two messages:
+                // sending it to the blocking pool and back cost more than the
+                // update itself (two thread switches).
+                Some(p) if light(&p, &text) => p.update(&text),
+                // A first reading, or an update that may re-read a lot of text
+                // (a large block, a large paste): off the message loop.
+                previous => {
+                    let work = move || match previous {
+                        Some(p) => p.update(&text),
+                        None => Analysis::new(&text),
+                    };
+                    match tokio::task::spawn_blocking(work).await {
+                        Ok(a) => a,
+                        Err(_) => continue,
+                    }
+                }
             };
             let a = Arc::new(a);
             let current = {
@@ -173,6 +187,21 @@ async fn worker(client: Client, state: Arc<Mutex<State>>, wake: Arc<Notify>) {
             }
         }
     }
+}
+
+/// Most bytes an update may re-read on the message loop (see [`light`]).
+const LIGHT_BYTES: usize = 64 * 1024;
+
+/// True when updating `previous` to `text` is bounded work: no top-level block
+/// of the previous text is over [`LIGHT_BYTES`] (an edit re-reads whole blocks)
+/// and the text grew or shrank by less than that.
+fn light(previous: &Analysis, text: &str) -> bool {
+    text.len().abs_diff(previous.source().len()) <= LIGHT_BYTES
+        && previous
+            .parsed
+            .blocks
+            .iter()
+            .all(|b| b.span.len() <= LIGHT_BYTES)
 }
 
 fn token_type(c: tokens::TokenClass) -> SemanticTokenType {
