@@ -35,6 +35,9 @@ struct State {
     dirty: BTreeSet<String>,
     unit: Option<ColumnUnit>,
     worker_started: bool,
+    /// The client resolves an inlay hint's tooltip on demand
+    /// (`inlayHint/resolve`), so hints are sent without it.
+    lazy_tooltips: bool,
 }
 
 /// The server: shared state plus the client handle.
@@ -251,7 +254,20 @@ impl LanguageServer for Server {
         } else {
             (ColumnUnit::Utf16, PositionEncodingKind::UTF16)
         };
-        self.lock().unit = Some(unit);
+        // Tooltips are most of an inlay hint answer (every value of the line
+        // with its label): sent only on request when the client can ask.
+        let lazy_tooltips = params
+            .capabilities
+            .text_document
+            .as_ref()
+            .and_then(|t| t.inlay_hint.as_ref())
+            .and_then(|h| h.resolve_support.as_ref())
+            .is_some_and(|r| r.properties.iter().any(|p| p == "tooltip"));
+        {
+            let mut st = self.lock();
+            st.unit = Some(unit);
+            st.lazy_tooltips = lazy_tooltips;
+        }
         Ok(InitializeResult {
             offset_encoding: None,
             server_info: Some(ServerInfo {
@@ -268,7 +284,12 @@ impl LanguageServer for Server {
                     trigger_characters: Some(vec![" ".into()]),
                     ..Default::default()
                 }),
-                inlay_hint_provider: Some(OneOf::Left(true)),
+                inlay_hint_provider: Some(OneOf::Right(InlayHintServerCapabilities::Options(
+                    InlayHintOptions {
+                        resolve_provider: Some(true),
+                        ..Default::default()
+                    },
+                ))),
                 document_formatting_provider: Some(OneOf::Left(true)),
                 document_range_formatting_provider: Some(OneOf::Left(true)),
                 code_action_provider: Some(CodeActionProviderCapability::Simple(true)),
@@ -387,25 +408,61 @@ impl LanguageServer for Server {
     }
 
     async fn inlay_hint(&self, params: InlayHintParams) -> Result<Option<Vec<InlayHint>>> {
-        let Some((a, unit)) = self.analysis(&params.text_document.uri).await else {
+        let uri = params.text_document.uri;
+        let Some((a, unit)) = self.analysis(&uri).await else {
             return Ok(None);
         };
+        let lazy = self.lock().lazy_tooltips;
         let span = convert::span(&a, params.range, unit);
         Ok(Some(
             hints::inlay_hints(&a, Some(span))
                 .into_iter()
-                .map(|h| InlayHint {
-                    position: convert::position(&a, h.offset, unit),
-                    label: InlayHintLabel::String(h.label),
-                    kind: None,
-                    text_edits: None,
-                    tooltip: Some(InlayHintTooltip::String(h.tooltip)),
-                    padding_left: Some(true),
-                    padding_right: None,
-                    data: None,
+                .map(|h| {
+                    let position = convert::position(&a, h.offset, unit);
+                    let (tooltip, data) = if lazy {
+                        (None, Some(serde_json::json!({ "uri": uri.as_str() })))
+                    } else {
+                        (Some(InlayHintTooltip::String(h.tooltip)), None)
+                    };
+                    InlayHint {
+                        position,
+                        label: InlayHintLabel::String(h.label),
+                        kind: None,
+                        text_edits: None,
+                        tooltip,
+                        padding_left: Some(true),
+                        padding_right: None,
+                        data,
+                    }
                 })
                 .collect(),
         ))
+    }
+
+    async fn inlay_hint_resolve(&self, mut hint: InlayHint) -> Result<InlayHint> {
+        // The hint of the line at its position, in the newest analysis; a hint
+        // that no longer stands there (the text changed) is returned as it is.
+        let uri = hint
+            .data
+            .as_ref()
+            .and_then(|d| d["uri"].as_str())
+            .and_then(|u| u.parse::<Uri>().ok());
+        let Some(uri) = uri else {
+            return Ok(hint);
+        };
+        let Some((a, unit)) = self.analysis(&uri).await else {
+            return Ok(hint);
+        };
+        let offset = convert::offset(&a, hint.position, unit);
+        let line = a.line_at(offset);
+        let span = a.parsed.lines.get(line).map(|l| l.span);
+        if let Some(h) = hints::inlay_hints(&a, span)
+            .into_iter()
+            .find(|h| h.offset == offset)
+        {
+            hint.tooltip = Some(InlayHintTooltip::String(h.tooltip));
+        }
+        Ok(hint)
     }
 
     async fn completion(&self, params: CompletionParams) -> Result<Option<CompletionResponse>> {
