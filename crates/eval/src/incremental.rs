@@ -342,8 +342,12 @@ fn evaluate_with(
     // Block ids must be unique: two eye blocks with the same id share their
     // `expect` look-ups, so then everything is evaluated in full.
     for e in &removed {
-        if let Some(n) = ids.get_mut(&compute::eye_block_id(e)) {
+        let id = compute::eye_block_id(e);
+        if let Some(n) = ids.get_mut(&id) {
             *n -= 1;
+            if *n == 0 {
+                ids.remove(&id);
+            }
         }
     }
     let mut duplicate = false;
@@ -355,7 +359,6 @@ fn evaluate_with(
     if duplicate {
         return crate::evaluate(parsed);
     }
-    ids.retain(|_, n| *n > 0);
 
     // Which block each eye came from.
     let block_of_eye: Vec<usize> = {

@@ -126,14 +126,13 @@ async fn worker(client: Client, state: Arc<Mutex<State>>, wake: Arc<Notify>) {
                 // updated: only what changed is parsed and computed again.
                 st.docs.get_mut(&key).map(|d| {
                     let previous = d.analysis.take().map(|(_, a)| a).or(d.base.take());
-                    (
-                        key,
-                        d.uri.clone(),
-                        d.rope.to_string(),
-                        d.version,
-                        unit,
-                        previous,
-                    )
+                    // Sized once (`to_string` grows the string by doubling,
+                    // which copied a large file several times per edit).
+                    let mut text = String::with_capacity(d.rope.len_bytes());
+                    for chunk in d.rope.chunks() {
+                        text.push_str(chunk);
+                    }
+                    (key, d.uri.clone(), text, d.version, unit, previous)
                 })
             };
             let Some((key, uri, text, version, unit, previous)) = job else {
