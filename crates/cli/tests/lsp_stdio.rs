@@ -106,3 +106,34 @@ async fn serves_the_clinic_example_over_stdio() {
         .expect("status");
     assert!(status.success());
 }
+
+/// Standard input that is a file, not a pipe (the runtime cannot poll it):
+/// the server falls back to reading it through the blocking pool and still
+/// answers the request in it.
+#[test]
+fn serves_requests_read_from_a_file() {
+    fn frame(v: serde_json::Value) -> String {
+        let body = v.to_string();
+        format!("Content-Length: {}\r\n\r\n{body}", body.len())
+    }
+    let dir = std::env::temp_dir().join(format!("parax-lsp-stdin-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).expect("temp dir");
+    let input = dir.join("requests");
+    // Only `initialize`: a client waits for its answer before sending more
+    // (what is sent before the answer may be cancelled), and the end of the
+    // file ends the session.
+    let requests = [frame(
+        json!({"jsonrpc": "2.0", "id": 1, "method": "initialize", "params": {"capabilities": {}}}),
+    )];
+    std::fs::write(&input, requests.concat()).expect("requests written");
+    let out = std::process::Command::new(env!("CARGO_BIN_EXE_parax"))
+        .arg("lsp")
+        .stdin(std::fs::File::open(&input).expect("requests"))
+        .stderr(Stdio::null())
+        .output()
+        .expect("parax runs");
+    let _ = std::fs::remove_dir_all(&dir);
+    let text = String::from_utf8_lossy(&out.stdout);
+    assert!(out.status.success(), "exit status {:?}", out.status);
+    assert!(text.contains(r#""serverInfo":{"name":"parax""#), "{text}");
+}

@@ -20,7 +20,7 @@ pub mod units;
 pub use compute::slug;
 pub use derived::{Derived, DerivedValue, Difference};
 pub use diagnostic::{Diagnostic, Edit, Fix, Severity, GENERAL_CAUTION};
-pub use incremental::evaluate_incremental;
+pub use incremental::{evaluate_edit, evaluate_incremental};
 
 pub use model::Case;
 
@@ -45,6 +45,16 @@ impl Evaluation {
         self.diagnostics
             .iter()
             .any(|d| d.severity == Severity::Error)
+    }
+
+    /// Indices in [`Evaluation::derived`] of the values whose span starts inside
+    /// `span` (both ends included), ordered by (start, index). After
+    /// [`evaluate_incremental`] this looks only at the eye blocks that meet
+    /// `span` and at the few values kept apart (the other blocks'), so its cost
+    /// follows the size of `span`, not of the file; after [`evaluate`] it scans
+    /// every value.
+    pub fn values_starting_in(&self, span: parax_syntax::Span) -> Vec<usize> {
+        incremental::values_starting_in(self, span)
     }
 }
 

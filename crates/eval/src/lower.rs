@@ -28,7 +28,9 @@ fn statement_span(p: &Parsed, line: usize) -> Span {
     Span::new(start, start + text.trim().len())
 }
 
-fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagnostic>) {
+/// Read one block into `case`, appending diagnostics to `diags` (used alone by
+/// the incremental evaluation for the blocks an edit touched).
+pub(crate) fn lower_block(p: &Parsed, block: &Block, case: &mut Case, diags: &mut Vec<Diagnostic>) {
     let header = p.lines[block.header]
         .statement()
         .expect("a block starts with a header");

@@ -1,9 +1,12 @@
-//! `evaluate_incremental` (reusing the previous evaluation for eye blocks whose
-//! inputs did not change) must give exactly what `evaluate` gives: the same
-//! derived values (key, text, span) and the same diagnostics, after random
-//! edits of the example and fixture files and of a long history of visits.
+//! `evaluate_incremental` and `evaluate_edit` (reusing the previous evaluation
+//! for the blocks whose inputs did not change) must give exactly what
+//! `evaluate` gives: the same case model, derived values (key, text, span) and
+//! diagnostics, after random edits of the example and fixture files and of a
+//! long history of visits; and `values_starting_in` must find what a scan of
+//! every value finds.
 
-use parax_eval::{evaluate, evaluate_incremental, Evaluation};
+use parax_eval::{evaluate, evaluate_edit, evaluate_incremental, Evaluation};
+use parax_syntax::Span;
 use parax_syntax::{parse, reparse};
 use proptest::prelude::*;
 use std::path::Path;
@@ -101,6 +104,8 @@ proptest! {
         let mut text = files[file.index(files.len())].clone();
         let mut parsed = parse(&text);
         let mut eval = evaluate_incremental(&parsed, None);
+        // The same edits told to the evaluator (blocks found by position).
+        let mut told = eval.clone();
         for (at, len, pieces) in edits {
             let start = floor(&text, at.index(text.len() + 1));
             let end = floor(&text, start + len);
@@ -108,10 +113,25 @@ proptest! {
             parsed = reparse(&parsed, start..end, &insert);
             text.replace_range(start..end, &insert);
             eval = evaluate_incremental(&parsed, Some(eval));
+            told = evaluate_edit(&parsed, Some(told), start..end, insert.len());
             let full = evaluate(&parse(&text));
-            prop_assert_eq!(summary(&eval), summary(&full), "values of {:?}", text);
-            prop_assert_eq!(&eval.diagnostics, &full.diagnostics, "diagnostics of {:?}", text);
-            prop_assert_eq!(&eval.case, &full.case);
+            for e in [&eval, &told] {
+                prop_assert_eq!(summary(e), summary(&full), "values of {:?}", text);
+                prop_assert_eq!(&e.diagnostics, &full.diagnostics, "diagnostics of {:?}", text);
+                prop_assert_eq!(&e.case, &full.case);
+            }
+            // The values found by span are those a scan of every value finds.
+            let lines = parse(&text).lines;
+            for line in lines.iter().step_by(3) {
+                let mut scan: Vec<usize> = (0..full.derived.len())
+                    .filter(|&i| (line.span.start..=line.span.end).contains(&full.derived[i].span.start))
+                    .collect();
+                scan.sort_by_key(|&i| (full.derived[i].span.start, i));
+                prop_assert_eq!(told.values_starting_in(line.span), scan.clone());
+                prop_assert_eq!(full.values_starting_in(line.span), scan);
+            }
+            let whole = Span::new(0, text.len());
+            prop_assert_eq!(told.values_starting_in(whole).len(), full.derived.len());
         }
     }
 }

@@ -3,6 +3,7 @@
 use crate::{meets, Analysis};
 use parax_syntax::Span;
 use serde::Serialize;
+use std::fmt::Write as _;
 
 /// One hint: text shown after the end of a statement line.
 #[derive(Debug, Clone, PartialEq, Serialize)]
@@ -32,8 +33,20 @@ const PREFERRED: &[(&str, &str)] = &[
 /// Hints for every statement line that meets `range` (the whole file when `None`).
 pub fn inlay_hints(a: &Analysis, range: Option<Span>) -> Vec<InlayHint> {
     let mut out = Vec::new();
-    for line in &a.parsed.lines {
+    // Only the lines of the range are visited (found by the line index), so a
+    // screenful costs the same in a short file and a long one.
+    let lines = match range {
+        Some(r) => {
+            let first = a.line_at(r.start);
+            &a.parsed.lines[first.min(a.parsed.lines.len())..]
+        }
+        None => &a.parsed.lines[..],
+    };
+    for line in lines {
         if let Some(r) = range {
+            if line.span.start > r.end {
+                break;
+            }
             if !meets(r, line.span) {
                 continue;
             }
@@ -50,7 +63,13 @@ pub fn inlay_hints(a: &Analysis, range: Option<Span>) -> Vec<InlayHint> {
             // Per-lens values are keyed `LABEL.image`; the whole system's image is `image`.
             // The whole system's value wins over a per-lens one on the same line.
             let exact = here.iter().find(|d| d.name == *name);
-            let per_lens = || here.iter().find(|d| d.name.ends_with(&format!(".{name}")));
+            let per_lens = || {
+                here.iter().find(|d| {
+                    d.name
+                        .strip_suffix(name)
+                        .is_some_and(|label| label.ends_with('.'))
+                })
+            };
             if let Some(d) = exact.or_else(per_lens) {
                 parts.push(format!("{short} {}", d.text()));
             }
@@ -61,11 +80,14 @@ pub fn inlay_hints(a: &Analysis, range: Option<Span>) -> Vec<InlayHint> {
         if parts.is_empty() {
             continue;
         }
-        let tooltip = here
-            .iter()
-            .map(|d| format!("{}: {}  [{}]", d.label, d.text(), d.name))
-            .collect::<Vec<_>>()
-            .join("\n");
+        // One string written in place (no string per value, then a join).
+        let mut tooltip = String::new();
+        for (k, d) in here.iter().enumerate() {
+            if k > 0 {
+                tooltip.push('\n');
+            }
+            let _ = write!(tooltip, "{}: {}  [{}]", d.label, d.text(), d.name);
+        }
         // End of the text before any trailing comment, so the hint reads after the values.
         let end = match line.comment {
             Some(c) => a.parsed.source[line.span.start..c.start].trim_end().len() + line.span.start,

@@ -25,9 +25,6 @@ pub struct Analysis {
     pub parsed: Parsed,
     /// Derived values and diagnostics.
     pub evaluation: Evaluation,
-    /// Indices into `evaluation.derived`, ordered by where each value's
-    /// statement starts, so the values of one line are found by binary search.
-    by_start: Vec<usize>,
 }
 
 impl Analysis {
@@ -40,34 +37,21 @@ impl Analysis {
 
     /// The analysis of `source`, a later version of the same document: only the
     /// lines that differ are parsed again (`parax_syntax::reparse`) and only the
-    /// eye blocks whose inputs changed are computed again
-    /// (`parax_eval::evaluate_incremental`); the result equals [`Analysis::new`].
+    /// blocks the edit touched are read and computed again
+    /// (`parax_eval::evaluate_edit`); the result equals [`Analysis::new`].
     pub fn update(self, source: &str) -> Self {
         let Analysis {
             parsed, evaluation, ..
         } = self;
         let (range, insert) = changed(&parsed.source, source);
-        let parsed = parsed.edit(range, insert);
-        let evaluation = parax_eval::evaluate_incremental(&parsed, Some(evaluation));
+        let inserted = insert.len();
+        let parsed = parsed.edit(range.clone(), insert);
+        let evaluation = parax_eval::evaluate_edit(&parsed, Some(evaluation), range, inserted);
         Self::from_parts(parsed, evaluation)
     }
 
     fn from_parts(parsed: Parsed, evaluation: Evaluation) -> Self {
-        // Sorted by (start, index): ties keep the order of `derived`, as a stable
-        // sort would. The keys sit next to each other (no look-up per comparison).
-        let mut keyed: Vec<(usize, usize)> = evaluation
-            .derived
-            .iter()
-            .enumerate()
-            .map(|(i, d)| (d.span.start, i))
-            .collect();
-        sort_nearly_sorted(&mut keyed);
-        let by_start = keyed.into_iter().map(|(_, i)| i).collect();
-        Analysis {
-            parsed,
-            evaluation,
-            by_start,
-        }
+        Analysis { parsed, evaluation }
     }
 
     /// The source text.
@@ -98,17 +82,14 @@ impl Analysis {
         }
     }
 
-    /// Derived values whose statement lies on `line`.
+    /// Derived values whose statement lies on `line` (found through [`Evaluation::values_starting_in`], which looks only at the
+    /// blocks around the line), ordered by where they start, then as evaluated.
     pub fn derived_on_line(&self, line: &Line) -> impl Iterator<Item = &Derived> + '_ {
-        let span = line.span;
         let derived = &self.evaluation.derived;
-        let first = self
-            .by_start
-            .partition_point(|&i| derived[i].span.start < span.start);
-        self.by_start[first..]
-            .iter()
-            .map(move |&i| &derived[i])
-            .take_while(move |d| d.span.start <= span.end)
+        self.evaluation
+            .values_starting_in(line.span)
+            .into_iter()
+            .map(move |i| &derived[i])
     }
 
     /// The kind of the block that holds `line`, if any.
@@ -127,43 +108,49 @@ pub(crate) fn meets(a: Span, b: Span) -> bool {
 /// merged from several changes become one range covering them all.
 fn changed<'a>(old: &str, new: &'a str) -> (std::ops::Range<usize>, &'a str) {
     let (a, b) = (old.as_bytes(), new.as_bytes());
-    let mut prefix = a.iter().zip(b).take_while(|(x, y)| x == y).count();
+    let mut prefix = common_prefix(a, b);
     while !old.is_char_boundary(prefix) {
         prefix -= 1;
     }
     let room = a.len().min(b.len()) - prefix;
-    let mut suffix = a
-        .iter()
-        .rev()
-        .zip(b.iter().rev())
-        .take(room)
-        .take_while(|(x, y)| x == y)
-        .count();
+    let mut suffix = common_suffix(&a[a.len() - room..], &b[b.len() - room..]);
     while !old.is_char_boundary(a.len() - suffix) || !new.is_char_boundary(b.len() - suffix) {
         suffix -= 1;
     }
     (prefix..a.len() - suffix, &new[prefix..b.len() - suffix])
 }
 
-/// Sort values that are nearly in order already. Each block's values come
-/// together and lie inside the block, so only a few values of each block are out
-/// of place (a value of a later line pushed before one of an earlier line):
-/// insertion sort costs one step per displacement, which is much less than a
-/// general sort of tens of thousands of values. When the displacements add up
-/// to more than a few per value (blocks out of file order), it stops and uses
-/// the library's sort instead, so the worst case stays `n log n`.
-fn sort_nearly_sorted(v: &mut [(usize, usize)]) {
-    let mut budget = 8 * v.len();
-    for k in 1..v.len() {
-        let mut j = k;
-        while j > 0 && v[j - 1] > v[j] {
-            v.swap(j - 1, j);
-            j -= 1;
-            if budget == 0 {
-                v.sort_unstable();
-                return;
-            }
-            budget -= 1;
-        }
+/// Chunk size for [`common_prefix`] and [`common_suffix`]: whole chunks are
+/// compared as slices (one memory comparison each, much faster than a byte
+/// loop over a large file), then the differing chunk byte by byte.
+const CHUNK: usize = 256;
+
+/// Length of the longest common prefix of `a` and `b`.
+fn common_prefix(a: &[u8], b: &[u8]) -> usize {
+    let n = a.len().min(b.len());
+    let mut i = 0;
+    while i + CHUNK <= n && a[i..i + CHUNK] == b[i..i + CHUNK] {
+        i += CHUNK;
     }
+    i + a[i..n]
+        .iter()
+        .zip(&b[i..n])
+        .take_while(|(x, y)| x == y)
+        .count()
+}
+
+/// Length of the longest common suffix of `a` and `b`.
+fn common_suffix(a: &[u8], b: &[u8]) -> usize {
+    let n = a.len().min(b.len());
+    let (a, b) = (&a[a.len() - n..], &b[b.len() - n..]);
+    let mut i = 0;
+    while i + CHUNK <= n && a[n - i - CHUNK..n - i] == b[n - i - CHUNK..n - i] {
+        i += CHUNK;
+    }
+    i + a[..n - i]
+        .iter()
+        .rev()
+        .zip(b[..n - i].iter().rev())
+        .take_while(|(x, y)| x == y)
+        .count()
 }

@@ -42,6 +42,28 @@ impl LineIndex {
         }
     }
 
+    /// Update the index for an edit of the indexed text: the bytes `edit` were
+    /// replaced by `new_text`. Only `new_text` is scanned; the line starts before
+    /// the edit are kept and those after it are moved, so the result equals
+    /// [`LineIndex::new`] of the edited text without reading all of it (the
+    /// incremental re-parse uses this). `edit` must lie inside the old text.
+    pub fn edit(&mut self, edit: std::ops::Range<usize>, new_text: &str) {
+        let delta = new_text.len() as isize - edit.len() as isize;
+        // A start `s` follows the `\n` at `s - 1`: those at or before the edit's
+        // start stay, those whose `\n` lay inside the edit go, the rest move.
+        let keep = self.starts.partition_point(|&s| s <= edit.start);
+        let tail = self.starts.partition_point(|&s| s <= edit.end).max(keep);
+        let added = memchr_newlines(new_text.as_bytes()).map(|i| edit.start + i + 1);
+        self.starts.splice(keep..tail, added);
+        let moved = keep + new_text.bytes().filter(|&b| b == b'\n').count();
+        if delta != 0 {
+            for s in &mut self.starts[moved..] {
+                *s = s.wrapping_add_signed(delta);
+            }
+        }
+        self.len = self.len.wrapping_add_signed(delta);
+    }
+
     /// Number of lines (a final line without `\n` counts; an empty text has one line).
     pub fn line_count(&self) -> usize {
         self.starts.len()
@@ -141,6 +163,26 @@ fn memchr_newlines(bytes: &[u8]) -> impl Iterator<Item = usize> + '_ {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn an_edited_index_equals_a_new_one() {
+        let text = "eye right\n  add +1.00\r\n\n  note \"Zoë\"\n";
+        for start in 0..=text.len() {
+            for end in start..=text.len() {
+                if !text.is_char_boundary(start) || !text.is_char_boundary(end) {
+                    continue;
+                }
+                for insert in ["", "x", "\n", "a\nb\n", "\r\n\n"] {
+                    let mut edited = text.to_owned();
+                    edited.replace_range(start..end, insert);
+                    let mut idx = LineIndex::new(text);
+                    idx.edit(start..end, insert);
+                    let fresh = LineIndex::new(&edited);
+                    assert_eq!((idx.starts, idx.len), (fresh.starts, fresh.len));
+                }
+            }
+        }
+    }
 
     #[test]
     fn columns_in_every_unit_on_non_ascii_text() {

@@ -179,15 +179,55 @@ impl Parsed {
             lines: mut old_lines,
             errors: old_errors,
             index: old_index,
+            blocks: old_blocks,
             ..
         } = self;
-        let index = LineIndex::new(&source);
         // Old lines `first..=last` are replaced by new lines `first..=new_last`.
         let first = old_index.line_of(edit.start);
         let last = old_index.line_of(edit.end);
+        let mut index = old_index;
+        index.edit(edit.clone(), new_text);
         let new_last = index.line_of(edit.start + new_text.len());
         let delta = new_text.len() as isize - edit.len() as isize;
         let mut errors = Vec::new();
+        // The usual edit in a clean file: as many lines as before, each of the
+        // same kind for the grouping. Then the blocks are the same blocks (only
+        // their spans move) and no line is an error, so the grouping pass over
+        // every line is skipped; `Parsed::edit` stays proportional to the lines
+        // after the edit (their spans move), not to the whole file's grouping.
+        if old_errors.is_empty() && new_last == last {
+            let fresh: Vec<Line> = (first..=new_last)
+                .map(|i| parse_line(&source, index.line_span(&source, i), &mut errors))
+                .collect();
+            let same = errors.is_empty()
+                && fresh
+                    .iter()
+                    .zip(&old_lines[first..=last])
+                    .all(|(a, b)| grouping(a) == grouping(b));
+            if same {
+                for line in &mut old_lines[last + 1..] {
+                    line.shift(delta);
+                }
+                old_lines.splice(first..=last, fresh);
+                let mut blocks = old_blocks;
+                // Blocks that end before the edit keep their span.
+                let from = blocks.partition_point(|b| b.end <= first);
+                for b in &mut blocks[from..] {
+                    b.span = Span::new(
+                        old_lines[b.header].span.start,
+                        old_lines[b.end - 1].span.end,
+                    );
+                }
+                return Parsed {
+                    source,
+                    lines: old_lines,
+                    blocks,
+                    errors,
+                    index,
+                };
+            }
+            errors.clear();
+        }
         // Restore an unchanged line to what the grammar made of it: its own error
         // back, or (for a statement that stood outside any block, which the
         // grouping rewrote) read again.
@@ -219,6 +259,19 @@ impl Parsed {
         }
         old_lines.splice(first..=last, fresh);
         finish(source, index, old_lines, errors)
+    }
+}
+
+/// What [`group_blocks`] makes of a line that is not an error: a header of
+/// some kind, a line that extends the open block, or one that it skips.
+fn grouping(line: &Line) -> Option<(u8, Option<BlockKind>)> {
+    let top = line.indent == 0;
+    match &line.kind {
+        LineKind::Header { block, .. } => Some((0, Some(*block))),
+        LineKind::Statement { .. } => Some((1, None)),
+        LineKind::Trivia if top || line.comment.is_none() => Some((2, None)),
+        LineKind::Trivia => Some((1, None)),
+        LineKind::Error { .. } => None,
     }
 }
 

@@ -45,9 +45,17 @@ pub struct Visits<'a> {
 impl<'a> Visits<'a> {
     /// Index the eye blocks of `case`.
     pub fn new(case: &'a Case) -> Self {
+        Self::of(case, 0..case.eyes.len())
+    }
+
+    /// Index only the eye blocks `eyes` (indices in `case.eyes`, ascending). An
+    /// eye indexed together with its partner and previous visit finds the same
+    /// ones as through [`Visits::new`] (the incremental evaluation uses this to
+    /// compute one eye again without indexing every visit).
+    pub fn of(case: &'a Case, eyes: impl IntoIterator<Item = usize>) -> Self {
         let mut first = HashMap::new();
         let mut dated: HashMap<Side, Vec<(i64, usize)>> = HashMap::new();
-        for (i, o) in case.eyes.iter().enumerate() {
+        for (i, o) in eyes.into_iter().map(|i| (i, &case.eyes[i])) {
             if o.refraction.is_none() {
                 continue;
             }
