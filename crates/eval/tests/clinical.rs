@@ -323,6 +323,108 @@ fn model_eyes_and_overrides() {
 }
 
 #[test]
+fn entrance_pupil_of_the_model_eyes() {
+    let ev = eval("model-eye \"g\"\n  from gullstrand\nmodel-eye \"lg\"\n  from le-grand\nmodel-eye \"r\"\n  from emsley\n");
+    // [C] CAPABILITIES §5: entrance pupil behind the corneal vertex, Gullstrand
+    // exact 3.047 mm, Le Grand full 3.038 mm; tol 1e-3 mm
+    close(
+        num(&ev, "model-eye.g.entrance-pupil") * 1000.0,
+        3.047,
+        1e-3,
+    );
+    close(
+        num(&ev, "model-eye.lg.entrance-pupil") * 1000.0,
+        3.038,
+        1e-3,
+    );
+    // [C] second route for the magnification, Gullstrand: the cornea as a thick
+    // lens reversed (Gullstrand's equation F = F2 + F1 − (t/n)F2F1 from the
+    // aqueous side), the stop 3.1 mm behind its back vertex, m = (n/l)/(1/l');
+    // tol 1e-9
+    let (f1, f2, t, nc, na) = (0.376 / 0.0077, -0.04 / 0.0068, 0.0005, 1.376, 1.336);
+    let f = f2 + f1 - t / nc * f2 * f1;
+    let e = t / nc * f1 / f * na;
+    let l = -(0.0031 + e);
+    let l_prime = 1.0 / (f + na / l);
+    close(
+        num(&ev, "model-eye.g.entrance-pupil-magnification"),
+        (na / l) * l_prime,
+        1e-9,
+    );
+    // the reduced eye has no iris
+    assert!(!ev
+        .derived
+        .iter()
+        .any(|d| d.block.as_ref() == "model-eye.r" && d.name.starts_with("entrance-pupil")));
+}
+
+#[test]
+fn relative_spectacle_magnification_of_a_model_eye() {
+    use parax_optics::model_eye::{self, Schematic};
+    use parax_optics::system::{system_matrix, Matrix2};
+    let ev = eval("frame\n  vertex 12 mm\nmodel-eye \"long\"\n  from gullstrand\n  axial-length 26 mm\n");
+    let rsm = num(&ev, "model-eye.long.relative-spectacle-magnification");
+    let fs = num(&ev, "model-eye.long.spectacle-refraction");
+    let fe = num(&ev, "model-eye.long.power");
+    // [C] second route, by ray-transfer matrices (Gerrard & Burch): the thin lens
+    // F_s, 12 mm of air, the eye to its retina; a distant object at angle u is
+    // imaged at y' = B·u (A = 0, the eye is corrected); the emmetropic eye of
+    // the same power images it at u/F_e (B = −1/C when A = 0, det 1). RSM =
+    // B·F_e; tol 1e-9
+    let mut s = Schematic::GullstrandExact.surfaces();
+    model_eye::with_axial_length(&mut s, 0.026);
+    let last = *s.last().expect("surfaces");
+    let eye = system_matrix(&model_eye::elements(&s))
+        .then(&Matrix2::transfer(last.distance_m, last.index_after));
+    let corrected = Matrix2::refraction(fs)
+        .then(&Matrix2::transfer(0.012, 1.0))
+        .then(&eye);
+    close(corrected.a, 0.0, 1e-9);
+    close(rsm, corrected.b * fe, 1e-9);
+    // a 2.67 mm too long Gullstrand eye corrected at 12 mm: the minus lens
+    // minifies a little less than a standard eye's image (d < f): RSM > 1
+    assert!(rsm > 1.0 && rsm < 1.05, "{rsm}");
+    // [C] Knapp's law (CAPABILITIES §8): the lens at the eye's anterior focal
+    // point gives RSM 1 for any axial length; tol 1e-8 (vertex written to 1e-9 m)
+    let at = -num(&ev, "model-eye.long.front-focal") * 1000.0;
+    for length in ["21 mm", "24.385 mm", "26 mm", "30 mm"] {
+        let knapp = eval(&format!(
+            "frame\n  vertex {at:.6} mm\nmodel-eye \"k\"\n  from gullstrand\n  axial-length {length}\n"
+        ));
+        close(
+            num(&knapp, "model-eye.k.relative-spectacle-magnification"),
+            1.0,
+            1e-8,
+        );
+    }
+    // [C] CAPABILITIES §8 reduced eye (principal point at the cornea): 60 D
+    // eye 24 mm long at 12 mm: 60/(60 + F_s − 0.012·F_s·60); tol 1e-12
+    let r = eval("model-eye \"r\"\n  from emsley\n  axial-length 24 mm\n");
+    let fs = num(&r, "model-eye.r.spectacle-refraction");
+    close(
+        num(&r, "model-eye.r.relative-spectacle-magnification"),
+        60.0 / (60.0 + fs - 0.012 * fs * 60.0),
+        1e-12,
+    );
+}
+
+#[test]
+fn compensated_order_rounds_the_axis_to_whole_degrees() {
+    // The dispensing example: −5.50 / −0.75 × 180 at 12 mm, frame at 14 mm,
+    // 10° pantoscopic tilt and 5° face form, n 1.6: the combined tilt turns the
+    // cylinder axis to about 8.49° [C]; the order rounds it to 8° [CP: orders
+    // are written in whole degrees], sphere and cylinder to 0.25 D; exact
+    let ev = eval("eye right\n  refraction -5.50 / -0.75 x 180 @ 12 mm\nframe\n  vertex 14 mm\n  pantoscopic-tilt 10 deg\n  face-form 5 deg\nspectacle-lens right\n  power -5.50 / -0.75 x 180\n  index 1.6\n");
+    let (_, _, a) = sphcyl_of(&ev, "spectacle-lens.right.compensated");
+    assert!((a - a.round()).abs() > 0.2, "axis {a} is not whole");
+    close(a, 8.49, 0.01);
+    assert_eq!(
+        sphcyl_of(&ev, "spectacle-lens.right.compensated-rounded"),
+        (-5.5, -0.75, 8.0)
+    );
+}
+
+#[test]
 fn intraocular_lens_power() {
     let src = "eye right\n  axial-length 23.5 mm\n  keratometry 44.00 D @ 180, 44.00 D @ 90\n  iol-constant 118.4\n  iol-elp 5.0 mm\n";
     let ev = eval(src);
