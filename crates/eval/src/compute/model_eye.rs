@@ -232,17 +232,13 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
             "RSM = F_e / (F_e + F_s − d·F_s·F_e), d = vertex distance + cornea to first principal point",
             || {
                 format!(
-                    "d = {} + {} = {} mm; {} / ({} + {} − {}·{}·{}) = {}",
+                    "d = {} + {} = {} mm; {fe} / ({fe} + ({f}) − {d:.6}·({f})·{fe}) = {}",
                     n4(vertex * 1000.0),
                     n4(c.front_principal * 1000.0),
                     n4(d * 1000.0),
-                    n4(r.power),
-                    n4(r.power),
-                    n4(fs),
-                    n4(d),
-                    n4(fs),
-                    n4(r.power),
-                    n4(rsm)
+                    n4(rsm),
+                    fe = n4(r.power),
+                    f = n4(fs),
                 )
             },
             src::RELATIVE_SPECTACLE_MAGNIFICATION,
