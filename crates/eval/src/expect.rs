@@ -54,6 +54,7 @@ fn possible_names(block: &str) -> &'static [&'static str] {
             "iol-power-srkt",
             "iol-power-vergence",
             "iol-predicted-refraction",
+            "relative-spectacle-magnification",
         ]
     } else if block.starts_with("system.") {
         &[
@@ -113,6 +114,9 @@ fn possible_names(block: &str) -> &'static [&'static str] {
             "axial-length",
             "ocular-refraction",
             "spectacle-refraction",
+            "entrance-pupil",
+            "entrance-pupil-magnification",
+            "relative-spectacle-magnification",
         ]
     } else {
         &[]

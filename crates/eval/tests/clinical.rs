@@ -409,6 +409,55 @@ fn relative_spectacle_magnification_of_a_model_eye() {
 }
 
 #[test]
+fn relative_spectacle_magnification_from_refraction_and_axial_length() {
+    // [C] the same eye by two routes: Emsley's reduced eye 24 mm long has the
+    // spectacle refraction −4.6948 D at 12 mm (model-eye block); an eye block
+    // with that refraction and axial length is given power n'/AL − K = 60 D
+    // and the same RSM, 60/(60 + F_s − 0.012·F_s·60) = 1.0224; tol 1e-6
+    let model = eval("model-eye \"r\"\n  from emsley\n  axial-length 24 mm\n");
+    let fs = num(&model, "model-eye.r.spectacle-refraction");
+    let want = num(&model, "model-eye.r.relative-spectacle-magnification");
+    let ev = eval(&format!(
+        "eye right\n  refraction {fs:.9} @ 12 mm\n  axial-length 24 mm\n"
+    ));
+    let got = num(&ev, "eye.right.relative-spectacle-magnification");
+    close(got, want, 1e-6);
+    close(got, 60.0 / (60.0 + fs - 0.012 * fs * 60.0), 1e-6);
+    // the spherical equivalent is used: −4.00 / −1.50 equals −4.75 DS; tol 1e-12
+    let cyl = eval("eye right\n  refraction -4.00 / -1.50 x 30 @ 12 mm\n  axial-length 25 mm\n");
+    let sph = eval("eye right\n  refraction -4.75 @ 12 mm\n  axial-length 25 mm\n");
+    close(
+        num(&cyl, "eye.right.relative-spectacle-magnification"),
+        num(&sph, "eye.right.relative-spectacle-magnification"),
+        1e-12,
+    );
+    // [C] Knapp's law (CAPABILITIES §8): the lens moved to the eye's anterior
+    // focal point, 1/F_e before the cornea, gives RSM 1; −6.00 @ 12 mm, AL 26 mm:
+    // K = −6/(1 + 0.072), F_e = (4/3)/0.026 + 6/1.072; tol 1e-8
+    let k = -6.0 / (1.0 + 0.012 * 6.0);
+    let fe = (4.0 / 3.0) / 0.026 - k;
+    let at = 1000.0 / fe;
+    let knapp = eval(&format!(
+        "eye right\n  refraction -6.00 @ 12 mm\n  axial-length 26 mm\nframe\n  vertex {at:.6} mm\n"
+    ));
+    close(
+        num(&knapp, "eye.right.relative-spectacle-magnification"),
+        1.0,
+        1e-8,
+    );
+    // no value without a recorded vertex or without an axial length
+    for src in [
+        "eye right\n  refraction -6.00\n  axial-length 26 mm\n",
+        "eye right\n  refraction -6.00 @ 12 mm\n",
+    ] {
+        assert!(!eval(src)
+            .derived
+            .iter()
+            .any(|d| d.name == "relative-spectacle-magnification"));
+    }
+}
+
+#[test]
 fn compensated_order_rounds_the_axis_to_whole_degrees() {
     // The dispensing example: −5.50 / −0.75 × 180 at 12 mm, frame at 14 mm,
     // 10° pantoscopic tilt and 5° face form, n 1.6: the combined tilt turns the
