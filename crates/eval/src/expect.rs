@@ -41,6 +41,8 @@ fn possible_names(block: &str) -> &'static [&'static str] {
             "add-suggested",
             "clear-far",
             "clear-near",
+            "near-point-1",
+            "near-point-2",
             "anisometropia",
             "anisometropia-180",
             "anisometropia-90",

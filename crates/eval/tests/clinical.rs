@@ -273,6 +273,26 @@ fn near_vision_by_age() {
     close(num(&ev, "eye.right.clear-near"), -1.0 / 8.5, 1e-9);
     // [CP] half in reserve at 40 cm: 2.5 - 3.25 < 0 -> 0
     close(num(&ev, "eye.right.add-suggested"), 0.0, 1e-9);
+    // [C] CAPABILITIES §11, near point at vergence R − A: plano, A 6.5 ->
+    // 1/6.5 m in front of the correcting plane, both meridians; tol 1e-9
+    close(num(&ev, "eye.right.near-point-1"), -1.0 / 6.5, 1e-9);
+    close(num(&ev, "eye.right.near-point-2"), -1.0 / 6.5, 1e-9);
+    // [C] −4.00 / −2.00 x 180 @ 12 mm, age 50 (A 3.5): at the cornea the
+    // meridians are −4/(1 + 0.048) and −6/(1 + 0.072); near points
+    // 1/(K − 3.5) from the cornea; tol 1e-9
+    let ev = eval("eye right\n  age 50 y\n  refraction -4.00 / -2.00 x 180 @ 12 mm\n");
+    for (i, f) in [(1, -4.0_f64), (2, -6.0)] {
+        let k = f / (1.0 - 0.012 * f);
+        close(
+            num(&ev, &format!("eye.right.near-point-{i}")),
+            1.0 / (k - 3.5),
+            1e-9,
+        );
+    }
+    // a +3.50 hyperope at 60 (A 0.5): virtual near point 1/3.0 m behind the
+    // correcting plane; tol 1e-9
+    let ev = eval("eye right\n  age 60 y\n  refraction +3.50\n");
+    close(num(&ev, "eye.right.near-point-1"), 1.0 / 3.0, 1e-9);
 }
 
 #[test]
