@@ -347,11 +347,7 @@ fn entrance_pupil_of_the_model_eyes() {
     let ev = eval("model-eye \"g\"\n  from gullstrand\nmodel-eye \"lg\"\n  from le-grand\nmodel-eye \"r\"\n  from emsley\n");
     // [C] CAPABILITIES §5: entrance pupil behind the corneal vertex, Gullstrand
     // exact 3.047 mm, Le Grand full 3.038 mm; tol 1e-3 mm
-    close(
-        num(&ev, "model-eye.g.entrance-pupil") * 1000.0,
-        3.047,
-        1e-3,
-    );
+    close(num(&ev, "model-eye.g.entrance-pupil") * 1000.0, 3.047, 1e-3);
     close(
         num(&ev, "model-eye.lg.entrance-pupil") * 1000.0,
         3.038,
@@ -382,7 +378,9 @@ fn entrance_pupil_of_the_model_eyes() {
 fn relative_spectacle_magnification_of_a_model_eye() {
     use parax_optics::model_eye::{self, Schematic};
     use parax_optics::system::{system_matrix, Matrix2};
-    let ev = eval("frame\n  vertex 12 mm\nmodel-eye \"long\"\n  from gullstrand\n  axial-length 26 mm\n");
+    let ev = eval(
+        "frame\n  vertex 12 mm\nmodel-eye \"long\"\n  from gullstrand\n  axial-length 26 mm\n",
+    );
     let rsm = num(&ev, "model-eye.long.relative-spectacle-magnification");
     let fs = num(&ev, "model-eye.long.spectacle-refraction");
     let fe = num(&ev, "model-eye.long.power");

@@ -6,8 +6,7 @@ mod common;
 use parax_optics::refraction::SphCyl;
 use parax_optics::vertex::{
     compensation_matters, effective_power, round_order, round_sphcyl, round_to_step,
-    transfer_sphcyl,
-    MEANINGFUL_CHANGE_THRESHOLD_D,
+    transfer_sphcyl, MEANINGFUL_CHANGE_THRESHOLD_D,
 };
 
 const D12: f64 = 0.012;
@@ -100,9 +99,15 @@ fn orders_round_the_axis_to_whole_degrees() {
     let r = round_order(&SphCyl::new(-5.44, -0.64, 8.49), 0.25);
     assert_eq!((r.sphere, r.cylinder, r.axis), (-5.5, -0.75, 8.0));
     assert_eq!(round_order(&SphCyl::new(-1.0, -1.0, 8.5), 0.25).axis, 9.0);
-    assert_eq!(round_order(&SphCyl::new(-1.0, -1.0, 179.6), 0.25).axis, 180.0);
+    assert_eq!(
+        round_order(&SphCyl::new(-1.0, -1.0, 179.6), 0.25).axis,
+        180.0
+    );
     assert_eq!(round_order(&SphCyl::new(-1.0, -1.0, 0.4), 0.25).axis, 180.0);
     assert_eq!(round_order(&SphCyl::new(-1.0, -1.0, 90.0), 0.25).axis, 90.0);
     // the unrounded form keeps the axis as computed
-    assert_eq!(round_sphcyl(&SphCyl::new(-1.0, -1.0, 8.49), 0.25).axis, 8.49);
+    assert_eq!(
+        round_sphcyl(&SphCyl::new(-1.0, -1.0, 8.49), 0.25).axis,
+        8.49
+    );
 }
