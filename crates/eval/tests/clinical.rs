@@ -489,6 +489,15 @@ fn compensated_order_rounds_the_axis_to_whole_degrees() {
         sphcyl_of(&ev, "spectacle-lens.right.compensated-rounded"),
         (-5.5, -0.75, 8.0)
     );
+    // [CP] the same for the refraction moved to the cornea and for a soft toric
+    // lens: an axis recorded as 12.6° is ordered at 13°, the exact value keeps
+    // it; exact
+    let ev = eval(
+        "eye right\n  refraction -5.00 / -1.00 x 12.6 @ 12 mm\ncontact-lens right\n  kind soft\n",
+    );
+    assert_eq!(sphcyl_of(&ev, "eye.right.corneal-plane").2, 12.6);
+    assert_eq!(sphcyl_of(&ev, "eye.right.corneal-plane-rounded").2, 13.0);
+    assert_eq!(sphcyl_of(&ev, "contact-lens.right.soft-power").2, 13.0);
 }
 
 #[test]
