@@ -41,6 +41,8 @@ fn possible_names(block: &str) -> &'static [&'static str] {
             "add-suggested",
             "clear-far",
             "clear-near",
+            "near-point-1",
+            "near-point-2",
             "anisometropia",
             "anisometropia-180",
             "anisometropia-90",
@@ -54,6 +56,7 @@ fn possible_names(block: &str) -> &'static [&'static str] {
             "iol-power-srkt",
             "iol-power-vergence",
             "iol-predicted-refraction",
+            "relative-spectacle-magnification",
         ]
     } else if block.starts_with("system.") {
         &[
@@ -113,6 +116,9 @@ fn possible_names(block: &str) -> &'static [&'static str] {
             "axial-length",
             "ocular-refraction",
             "spectacle-refraction",
+            "entrance-pupil",
+            "entrance-pupil-magnification",
+            "relative-spectacle-magnification",
         ]
     } else {
         &[]

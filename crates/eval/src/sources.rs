@@ -27,6 +27,13 @@ source!(
     "rounding to the nearest 0.25 D step (common practice, no source)"
 );
 source!(
+    ROUNDING_ORDER,
+    "CP",
+    "rounding to the nearest 0.25 D step, the axis to the nearest whole degree as orders are written (common practice, no source)"
+);
+source!(ENTRANCE_PUPIL, "C", "entrance pupil: the iris (at the front of the crystalline lens in Gullstrand's exact and Le Grand's full eye) imaged by the cornea, paraxial vergences through the published surface tables (Atchison & Smith, Optics of the Human Eye, 2000); about 3.04 mm behind the cornea, check values computed");
+source!(RELATIVE_SPECTACLE_MAGNIFICATION, "C", "relative spectacle magnification in axial ametropia, RSM = F_e/(F_e + F_s − d·F_s·F_e): the eye's power over the equivalent power of lens and eye by Gullstrand's equation, d from the eye's first principal point; Knapp's law: a lens at the eye's anterior focal point gives RSM 1");
+source!(
     KERATOMETRIC,
     "S",
     "keratometric index 1.3375, K = 337.5 / r(mm): Shammas et al., Am J Ophthalmol 2003;136:426"

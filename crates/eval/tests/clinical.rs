@@ -273,6 +273,26 @@ fn near_vision_by_age() {
     close(num(&ev, "eye.right.clear-near"), -1.0 / 8.5, 1e-9);
     // [CP] half in reserve at 40 cm: 2.5 - 3.25 < 0 -> 0
     close(num(&ev, "eye.right.add-suggested"), 0.0, 1e-9);
+    // [C] CAPABILITIES §11, near point at vergence R − A: plano, A 6.5 ->
+    // 1/6.5 m in front of the correcting plane, both meridians; tol 1e-9
+    close(num(&ev, "eye.right.near-point-1"), -1.0 / 6.5, 1e-9);
+    close(num(&ev, "eye.right.near-point-2"), -1.0 / 6.5, 1e-9);
+    // [C] −4.00 / −2.00 x 180 @ 12 mm, age 50 (A 3.5): at the cornea the
+    // meridians are −4/(1 + 0.048) and −6/(1 + 0.072); near points
+    // 1/(K − 3.5) from the cornea; tol 1e-9
+    let ev = eval("eye right\n  age 50 y\n  refraction -4.00 / -2.00 x 180 @ 12 mm\n");
+    for (i, f) in [(1, -4.0_f64), (2, -6.0)] {
+        let k = f / (1.0 - 0.012 * f);
+        close(
+            num(&ev, &format!("eye.right.near-point-{i}")),
+            1.0 / (k - 3.5),
+            1e-9,
+        );
+    }
+    // a +3.50 hyperope at 60 (A 0.5): virtual near point 1/3.0 m behind the
+    // correcting plane; tol 1e-9
+    let ev = eval("eye right\n  age 60 y\n  refraction +3.50\n");
+    close(num(&ev, "eye.right.near-point-1"), 1.0 / 3.0, 1e-9);
 }
 
 #[test]
@@ -320,6 +340,164 @@ fn model_eyes_and_overrides() {
     // an override of a surface the model lacks is an error
     let bad = eval("model-eye \"x\"\n  from emsley\n  surface 2 radius 6 mm\n");
     assert!(bad.has_errors());
+}
+
+#[test]
+fn entrance_pupil_of_the_model_eyes() {
+    let ev = eval("model-eye \"g\"\n  from gullstrand\nmodel-eye \"lg\"\n  from le-grand\nmodel-eye \"r\"\n  from emsley\n");
+    // [C] CAPABILITIES §5: entrance pupil behind the corneal vertex, Gullstrand
+    // exact 3.047 mm, Le Grand full 3.038 mm; tol 1e-3 mm
+    close(num(&ev, "model-eye.g.entrance-pupil") * 1000.0, 3.047, 1e-3);
+    close(
+        num(&ev, "model-eye.lg.entrance-pupil") * 1000.0,
+        3.038,
+        1e-3,
+    );
+    // [C] second route for the magnification, Gullstrand: the cornea as a thick
+    // lens reversed (Gullstrand's equation F = F2 + F1 − (t/n)F2F1 from the
+    // aqueous side), the stop 3.1 mm behind its back vertex, m = (n/l)/(1/l');
+    // tol 1e-9
+    let (f1, f2, t, nc, na) = (0.376 / 0.0077, -0.04 / 0.0068, 0.0005, 1.376, 1.336);
+    let f = f2 + f1 - t / nc * f2 * f1;
+    let e = t / nc * f1 / f * na;
+    let l = -(0.0031 + e);
+    let l_prime = 1.0 / (f + na / l);
+    close(
+        num(&ev, "model-eye.g.entrance-pupil-magnification"),
+        (na / l) * l_prime,
+        1e-9,
+    );
+    // the reduced eye has no iris
+    assert!(!ev
+        .derived
+        .iter()
+        .any(|d| d.block.as_ref() == "model-eye.r" && d.name.starts_with("entrance-pupil")));
+}
+
+#[test]
+fn relative_spectacle_magnification_of_a_model_eye() {
+    use parax_optics::model_eye::{self, Schematic};
+    use parax_optics::system::{system_matrix, Matrix2};
+    let ev = eval(
+        "frame\n  vertex 12 mm\nmodel-eye \"long\"\n  from gullstrand\n  axial-length 26 mm\n",
+    );
+    let rsm = num(&ev, "model-eye.long.relative-spectacle-magnification");
+    let fs = num(&ev, "model-eye.long.spectacle-refraction");
+    let fe = num(&ev, "model-eye.long.power");
+    // [C] second route, by ray-transfer matrices (Gerrard & Burch): the thin lens
+    // F_s, 12 mm of air, the eye to its retina; a distant object at angle u is
+    // imaged at y' = B·u (A = 0, the eye is corrected); the emmetropic eye of
+    // the same power images it at u/F_e (B = −1/C when A = 0, det 1). RSM =
+    // B·F_e; tol 1e-9
+    let mut s = Schematic::GullstrandExact.surfaces();
+    model_eye::with_axial_length(&mut s, 0.026);
+    let last = *s.last().expect("surfaces");
+    let eye = system_matrix(&model_eye::elements(&s))
+        .then(&Matrix2::transfer(last.distance_m, last.index_after));
+    let corrected = Matrix2::refraction(fs)
+        .then(&Matrix2::transfer(0.012, 1.0))
+        .then(&eye);
+    close(corrected.a, 0.0, 1e-9);
+    close(rsm, corrected.b * fe, 1e-9);
+    // a 2.67 mm too long Gullstrand eye corrected at 12 mm: the minus lens
+    // minifies a little less than a standard eye's image (d < f): RSM > 1
+    assert!(rsm > 1.0 && rsm < 1.05, "{rsm}");
+    // [C] Knapp's law (CAPABILITIES §8): the lens at the eye's anterior focal
+    // point gives RSM 1 for any axial length; tol 1e-8 (vertex written to 1e-9 m)
+    let at = -num(&ev, "model-eye.long.front-focal") * 1000.0;
+    for length in ["21 mm", "24.385 mm", "26 mm", "30 mm"] {
+        let knapp = eval(&format!(
+            "frame\n  vertex {at:.6} mm\nmodel-eye \"k\"\n  from gullstrand\n  axial-length {length}\n"
+        ));
+        close(
+            num(&knapp, "model-eye.k.relative-spectacle-magnification"),
+            1.0,
+            1e-8,
+        );
+    }
+    // [C] CAPABILITIES §8 reduced eye (principal point at the cornea): 60 D
+    // eye 24 mm long at 12 mm: 60/(60 + F_s − 0.012·F_s·60); tol 1e-12
+    let r = eval("model-eye \"r\"\n  from emsley\n  axial-length 24 mm\n");
+    let fs = num(&r, "model-eye.r.spectacle-refraction");
+    close(
+        num(&r, "model-eye.r.relative-spectacle-magnification"),
+        60.0 / (60.0 + fs - 0.012 * fs * 60.0),
+        1e-12,
+    );
+}
+
+#[test]
+fn relative_spectacle_magnification_from_refraction_and_axial_length() {
+    // [C] the same eye by two routes: Emsley's reduced eye 24 mm long has the
+    // spectacle refraction −4.6948 D at 12 mm (model-eye block); an eye block
+    // with that refraction and axial length is given power n'/AL − K = 60 D
+    // and the same RSM, 60/(60 + F_s − 0.012·F_s·60) = 1.0224; tol 1e-6
+    let model = eval("model-eye \"r\"\n  from emsley\n  axial-length 24 mm\n");
+    let fs = num(&model, "model-eye.r.spectacle-refraction");
+    let want = num(&model, "model-eye.r.relative-spectacle-magnification");
+    let ev = eval(&format!(
+        "eye right\n  refraction {fs:.9} @ 12 mm\n  axial-length 24 mm\n"
+    ));
+    let got = num(&ev, "eye.right.relative-spectacle-magnification");
+    close(got, want, 1e-6);
+    close(got, 60.0 / (60.0 + fs - 0.012 * fs * 60.0), 1e-6);
+    // the spherical equivalent is used: −4.00 / −1.50 equals −4.75 DS; tol 1e-12
+    let cyl = eval("eye right\n  refraction -4.00 / -1.50 x 30 @ 12 mm\n  axial-length 25 mm\n");
+    let sph = eval("eye right\n  refraction -4.75 @ 12 mm\n  axial-length 25 mm\n");
+    close(
+        num(&cyl, "eye.right.relative-spectacle-magnification"),
+        num(&sph, "eye.right.relative-spectacle-magnification"),
+        1e-12,
+    );
+    // [C] Knapp's law (CAPABILITIES §8): the lens moved to the eye's anterior
+    // focal point, 1/F_e before the cornea, gives RSM 1; −6.00 @ 12 mm, AL 26 mm:
+    // K = −6/(1 + 0.072), F_e = (4/3)/0.026 + 6/1.072; tol 1e-8
+    let k = -6.0 / (1.0 + 0.012 * 6.0);
+    let fe = (4.0 / 3.0) / 0.026 - k;
+    let at = 1000.0 / fe;
+    let knapp = eval(&format!(
+        "eye right\n  refraction -6.00 @ 12 mm\n  axial-length 26 mm\nframe\n  vertex {at:.6} mm\n"
+    ));
+    close(
+        num(&knapp, "eye.right.relative-spectacle-magnification"),
+        1.0,
+        1e-8,
+    );
+    // no value without a recorded vertex or without an axial length
+    for src in [
+        "eye right\n  refraction -6.00\n  axial-length 26 mm\n",
+        "eye right\n  refraction -6.00 @ 12 mm\n",
+    ] {
+        assert!(!eval(src)
+            .derived
+            .iter()
+            .any(|d| d.name == "relative-spectacle-magnification"));
+    }
+}
+
+#[test]
+fn compensated_order_rounds_the_axis_to_whole_degrees() {
+    // The dispensing example: −5.50 / −0.75 × 180 at 12 mm, frame at 14 mm,
+    // 10° pantoscopic tilt and 5° face form, n 1.6: the combined tilt turns the
+    // cylinder axis to about 8.49° [C]; the order rounds it to 8° [CP: orders
+    // are written in whole degrees], sphere and cylinder to 0.25 D; exact
+    let ev = eval("eye right\n  refraction -5.50 / -0.75 x 180 @ 12 mm\nframe\n  vertex 14 mm\n  pantoscopic-tilt 10 deg\n  face-form 5 deg\nspectacle-lens right\n  power -5.50 / -0.75 x 180\n  index 1.6\n");
+    let (_, _, a) = sphcyl_of(&ev, "spectacle-lens.right.compensated");
+    assert!((a - a.round()).abs() > 0.2, "axis {a} is not whole");
+    close(a, 8.49, 0.01);
+    assert_eq!(
+        sphcyl_of(&ev, "spectacle-lens.right.compensated-rounded"),
+        (-5.5, -0.75, 8.0)
+    );
+    // [CP] the same for the refraction moved to the cornea and for a soft toric
+    // lens: an axis recorded as 12.6° is ordered at 13°, the exact value keeps
+    // it; exact
+    let ev = eval(
+        "eye right\n  refraction -5.00 / -1.00 x 12.6 @ 12 mm\ncontact-lens right\n  kind soft\n",
+    );
+    assert_eq!(sphcyl_of(&ev, "eye.right.corneal-plane").2, 12.6);
+    assert_eq!(sphcyl_of(&ev, "eye.right.corneal-plane-rounded").2, 13.0);
+    assert_eq!(sphcyl_of(&ev, "contact-lens.right.soft-power").2, 13.0);
 }
 
 #[test]

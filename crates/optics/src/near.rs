@@ -2,6 +2,8 @@
 //! points, the range of clear vision through an add, and an add suggestion that
 //! keeps half the amplitude in reserve (a rule of thumb).
 
+use crate::refraction::{far_point, FarPoint};
+
 /// Hofstetter's (1950) amplitudes of accommodation for `age` years, D:
 /// `(minimum 15 − 0.25·age, mean 18.5 − 0.30·age, maximum 25 − 0.40·age)`, each
 /// floored at 0.
@@ -21,6 +23,17 @@ pub fn clear_range(add: f64, amplitude: f64) -> (Option<f64>, Option<f64>) {
     let total = add + amplitude;
     let near = (total > 1e-9).then(|| 1.0 / total);
     (far, near)
+}
+
+/// Near point of an eye of ocular refraction `refraction` (D, at the correcting
+/// plane, one meridian) that accommodates by `amplitude` (D): the nearest point
+/// it can focus has vergence `R − A`, so it lies at `1/(R − A)` metres from the
+/// correcting plane, with the sign convention of [`far_point`] (negative: in
+/// front). An emmetrope of amplitude 6.5 D sees down to 15.4 cm; a hyperope whose
+/// refraction exceeds the amplitude has a virtual near point (positive distance)
+/// and cannot focus any real object without correction.
+pub fn near_point(refraction: f64, amplitude: f64) -> FarPoint {
+    far_point(refraction - amplitude)
 }
 
 /// Add that keeps half the amplitude in reserve at working distance

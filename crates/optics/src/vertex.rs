@@ -54,6 +54,18 @@ pub fn round_sphcyl(rx: &SphCyl, step: f64) -> SphCyl {
     }
 }
 
+/// Rounds `rx` as a prescription is written for an order: sphere and cylinder
+/// to multiples of `step` (see [`round_sphcyl`]) and the axis to the nearest
+/// whole degree in 1..=180 (a computed axis such as 8.49° becomes 8°, 0.4°
+/// becomes 180°). Orders are written in whole degrees (common practice, no
+/// source).
+pub fn round_order(rx: &SphCyl, step: f64) -> SphCyl {
+    let mut out = round_sphcyl(rx, step);
+    let axis = rx.axis.round().rem_euclid(180.0);
+    out.axis = if axis == 0.0 { 180.0 } else { axis };
+    out
+}
+
 /// Whether vertex compensation matters for a lens of this power:
 /// `|power| > MEANINGFUL_CHANGE_THRESHOLD_D` (common practice).
 pub fn compensation_matters(power: f64) -> bool {

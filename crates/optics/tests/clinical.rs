@@ -195,6 +195,24 @@ fn near_checks() {
 }
 
 #[test]
+fn near_point_from_refraction_and_amplitude() {
+    use parax_optics::refraction::FarPoint;
+    let at = |p: FarPoint| match p {
+        FarPoint::At { distance_m } => distance_m,
+        FarPoint::Infinity => f64::INFINITY,
+    };
+    // [C] CAPABILITIES §11, far point 1/R and near point at vergence R − A:
+    // emmetrope, A 6.5 D (age 40) -> 1/6.5 = 15.38 cm in front; tol 1e-4 m
+    assert_close!(at(near_point(0.0, 6.5)), -0.1538, 1e-4);
+    // myope −4.00, A 6.5 -> 1/10.5 = 9.52 cm in front; tol 1e-4 m
+    assert_close!(at(near_point(-4.0, 6.5)), -0.0952, 1e-4);
+    // hyperope +3.00 with A 2.5 (age 53): vergence +0.50 -> virtual, 2 m behind; tol 1e-12
+    assert_close!(at(near_point(3.0, 2.5)), 2.0, 1e-12);
+    // refraction equal to the amplitude: near point at infinity
+    assert_eq!(near_point(2.5, 2.5), FarPoint::Infinity);
+}
+
+#[test]
 fn schematic_eye_totals() {
     // [S] Atchison & Smith (2000): Gullstrand exact eye 58.64 D, F' at 24.385 mm; tol 0.01 D / 0.005 mm
     let g = model_eye::evaluate(&Schematic::GullstrandExact.surfaces());

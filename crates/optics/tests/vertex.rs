@@ -5,8 +5,8 @@ mod common;
 
 use parax_optics::refraction::SphCyl;
 use parax_optics::vertex::{
-    compensation_matters, effective_power, round_sphcyl, round_to_step, transfer_sphcyl,
-    MEANINGFUL_CHANGE_THRESHOLD_D,
+    compensation_matters, effective_power, round_order, round_sphcyl, round_to_step,
+    transfer_sphcyl, MEANINGFUL_CHANGE_THRESHOLD_D,
 };
 
 const D12: f64 = 0.012;
@@ -89,4 +89,25 @@ fn compensation_threshold() {
     assert!(compensation_matters(-4.25));
     // [C] CAPABILITIES §2, the change at 4.00 D and 12 mm is about 0.2 D; tol 0.02
     assert_close!(effective_power(4.0, D12) - 4.0, 0.2, 0.02);
+}
+
+#[test]
+fn orders_round_the_axis_to_whole_degrees() {
+    // [CP] orders are written in whole degrees: a computed axis 8.49° → 8°,
+    // 8.5° → 9° (ties away from zero), 179.6° → 180°, 0.4° → 180° (axes run
+    // 1..=180); sphere and cylinder to 0.25 D as round_sphcyl; exact
+    let r = round_order(&SphCyl::new(-5.44, -0.64, 8.49), 0.25);
+    assert_eq!((r.sphere, r.cylinder, r.axis), (-5.5, -0.75, 8.0));
+    assert_eq!(round_order(&SphCyl::new(-1.0, -1.0, 8.5), 0.25).axis, 9.0);
+    assert_eq!(
+        round_order(&SphCyl::new(-1.0, -1.0, 179.6), 0.25).axis,
+        180.0
+    );
+    assert_eq!(round_order(&SphCyl::new(-1.0, -1.0, 0.4), 0.25).axis, 180.0);
+    assert_eq!(round_order(&SphCyl::new(-1.0, -1.0, 90.0), 0.25).axis, 90.0);
+    // the unrounded form keeps the axis as computed
+    assert_eq!(
+        round_sphcyl(&SphCyl::new(-1.0, -1.0, 8.49), 0.25).axis,
+        8.49
+    );
 }

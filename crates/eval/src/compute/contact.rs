@@ -11,7 +11,7 @@ use crate::sources as src;
 use parax_optics::contact;
 use parax_optics::keratometry::{keratometric_power, KERATOMETRIC_INDEX};
 use parax_optics::refraction::SphCyl;
-use parax_optics::vertex::{round_sphcyl, round_to_step};
+use parax_optics::vertex::{round_order, round_to_step};
 
 /// `contact-lens.right` or `contact-lens.left`.
 pub fn block_id(c: &ContactLens) -> String {
@@ -172,7 +172,7 @@ pub(super) fn compute(
         )
         .caution = Some(src::CAUTION_CONTACT);
         let lens = if toric {
-            round_sphcyl(&corneal, 0.25)
+            round_order(&corneal, 0.25)
         } else {
             SphCyl::new(
                 round_to_step(corneal.spherical_equivalent(), 0.25),
@@ -186,7 +186,7 @@ pub(super) fn compute(
             sphcyl(&lens),
             c.span,
             if toric {
-                "corneal-plane sphere and cylinder, each to 0.25 D"
+                "corneal-plane sphere and cylinder, each to 0.25 D, the axis to the nearest degree"
             } else {
                 "spherical equivalent at the corneal plane, to 0.25 D"
             },

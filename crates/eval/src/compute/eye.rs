@@ -13,7 +13,7 @@ use parax_optics::keratometry::{
     KReading, KERATOMETRIC_INDEX,
 };
 use parax_optics::refraction::{FarPoint, SphCyl};
-use parax_optics::vertex::{round_sphcyl, transfer_sphcyl, MEANINGFUL_CHANGE_THRESHOLD_D};
+use parax_optics::vertex::{round_order, transfer_sphcyl, MEANINGFUL_CHANGE_THRESHOLD_D};
 
 /// `eye.right`, or `eye.right.2026-10-02` for a dated visit.
 pub fn block_id(e: &Eye) -> String {
@@ -299,15 +299,15 @@ fn vertex_transfer(
         src::VERGENCE,
     )
     .caution = Some(src::CAUTION_VERTEX);
-    let rounded = round_sphcyl(&moved, 0.25);
+    let rounded = round_order(&moved, 0.25);
     out.push(
         format!("{name}-rounded"),
         format!("{label}, to 0.25 D"),
         sphcyl(&rounded),
         span,
-        "sphere and cylinder each rounded to the nearest 0.25 D",
+        "sphere and cylinder each rounded to the nearest 0.25 D, the axis to the nearest degree",
         || format!("{} → {}", show(&moved), show(&rounded)),
-        src::ROUNDING,
+        src::ROUNDING_ORDER,
     )
     .caution = Some(src::CAUTION_VERTEX);
     let change = m

@@ -3,6 +3,7 @@
 
 mod contact;
 mod eye;
+mod eye_axial;
 mod iol;
 mod model_eye;
 mod near;
@@ -58,6 +59,7 @@ fn eye_values(
 ) {
     let mut out = Out::new(eye::block_id(e), derivations, derived);
     eye::compute(case, e, &mut out, diags);
+    eye_axial::compute(case, e, &mut out);
     near::compute(case, e, &mut out);
     iol::compute(e, &mut out, diags);
     visits::compute(case, visits, e, &mut out, diags);

@@ -1,7 +1,8 @@
 //! Derived values of a `model-eye` block: a published schematic eye with the
 //! case's overrides, by ray-transfer matrices: powers, cardinal points, the
-//! second focal point, and the refraction its axial length implies at the cornea
-//! and at a spectacle vertex distance.
+//! second focal point, the entrance pupil, the refraction its axial length
+//! implies at the cornea and at a spectacle vertex distance, and the relative
+//! spectacle magnification of that correction.
 
 use super::{first_frame, n4, slug, Out};
 use crate::codes;
@@ -9,6 +10,7 @@ use crate::derived::DerivedValue as V;
 use crate::diagnostic::{Diagnostic, Severity};
 use crate::model::{Case, ModelEye};
 use crate::sources as src;
+use parax_optics::lens_form::relative_spectacle_magnification_axial;
 use parax_optics::model_eye::{self, EyeSurface, Schematic};
 use parax_optics::system::{system_matrix_in, system_powers};
 
@@ -144,6 +146,34 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
             );
         }
     }
+    // The iris lies at the front of the crystalline lens in the two full eyes;
+    // the reduced eye has none.
+    if model != Schematic::EmsleyReduced {
+        let stop = model_eye::IRIS_AT_LENS_FRONT;
+        if let Some((at, mag)) = model_eye::entrance_pupil(&s, stop) {
+            out.push(
+                "entrance-pupil",
+                "entrance pupil (image of the iris by the cornea)",
+                V::Distance {
+                    metres: at,
+                    from: "the cornea".into(),
+                },
+                span,
+                "iris at the front of the lens traced back through the cornea: L' = L + F at each surface, L ← L'/(1 − (d/n)·L') across each gap",
+                || format!("{base}: {} mm behind the cornea", n4(at * 1000.0)),
+                src::ENTRANCE_PUPIL,
+            );
+            out.push(
+                "entrance-pupil-magnification",
+                "entrance pupil magnification (pupil seen / iris aperture)",
+                V::Number { value: mag },
+                span,
+                "product of L/L' over the surfaces in front of the iris",
+                || format!("{base}: {}", n4(mag)),
+                src::ENTRANCE_PUPIL,
+            );
+        }
+    }
     let al = model_eye::axial_length(&s);
     out.push(
         "axial-length",
@@ -189,4 +219,30 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
         src::VERGENCE,
     )
     .caution = Some(src::CAUTION_MODEL);
+    if let Some(c) = r.cardinal {
+        // The correcting lens sits `vertex` before the cornea, the eye's first
+        // principal point `front_principal` behind it.
+        let d = vertex + c.front_principal;
+        let rsm = relative_spectacle_magnification_axial(r.power, fs, d);
+        out.push(
+            "relative-spectacle-magnification",
+            "relative spectacle magnification of the spectacle correction (axial ametropia)",
+            V::Number { value: rsm },
+            span,
+            "RSM = F_e / (F_e + F_s − d·F_s·F_e), d = vertex distance + cornea to first principal point",
+            || {
+                format!(
+                    "d = {} + {} = {} mm; {fe} / ({fe} + ({f}) − {d:.6}·({f})·{fe}) = {}",
+                    n4(vertex * 1000.0),
+                    n4(c.front_principal * 1000.0),
+                    n4(d * 1000.0),
+                    n4(rsm),
+                    fe = n4(r.power),
+                    f = n4(fs),
+                )
+            },
+            src::RELATIVE_SPECTACLE_MAGNIFICATION,
+        )
+        .caution = Some(src::CAUTION_MODEL);
+    }
 }

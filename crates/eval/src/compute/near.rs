@@ -1,13 +1,15 @@
 //! Near vision values of an `eye` block: Hofstetter's amplitudes for the age
-//! recorded (eye or case), the range of clear vision through the add, and an add
-//! suggestion that keeps half the mean amplitude in reserve (rule of thumb).
+//! recorded (eye or case), the near points of the uncorrected eye with the mean
+//! amplitude, the range of clear vision through the add, and an add suggestion
+//! that keeps half the mean amplitude in reserve (rule of thumb).
 
 use super::{n4, Out};
 use crate::derived::DerivedValue as V;
 use crate::model::{Case, Eye};
 use crate::sources as src;
 use parax_optics::near;
-use parax_optics::vertex::round_to_step;
+use parax_optics::refraction::{FarPoint, SphCyl};
+use parax_optics::vertex::{round_to_step, transfer_sphcyl};
 
 /// Working distance for the add suggestion, metres (common practice).
 const WORKING_DISTANCE: f64 = 0.40;
@@ -47,6 +49,44 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
             || format!("{f} with age {} = {}", n4(age.value), n4(v)),
             src::HOFSTETTER,
         );
+    }
+    if let Some(r) = &e.refraction {
+        // As the far points: from the cornea when the vertex is known, else from
+        // the correcting plane.
+        let rx = SphCyl::new(r.value.rx.sphere, r.value.rx.cylinder, r.value.rx.axis);
+        let (rx, from) = match r.value.vertex {
+            Some(d) if d > 0.0 => (transfer_sphcyl(&rx, d), "the cornea"),
+            _ => (rx, "the correcting plane"),
+        };
+        for (i, mer) in rx.principal_meridians().iter().enumerate() {
+            let value = match near::near_point(mer.power, mean) {
+                FarPoint::Infinity => V::Infinity,
+                FarPoint::At { distance_m } => V::Distance {
+                    metres: distance_m,
+                    from: from.into(),
+                },
+            };
+            out.push(
+                format!("near-point-{}", i + 1),
+                format!(
+                    "near point without correction, mean amplitude, meridian {}",
+                    i + 1
+                ),
+                value,
+                r.span,
+                "near point at 1/(R − A): refraction R of the meridian, mean amplitude A",
+                || {
+                    format!(
+                        "1 / ({} − {}) = {} m (meridian {})",
+                        n4(mer.power),
+                        n4(mean),
+                        n4(1.0 / (mer.power - mean)),
+                        n4(mer.meridian)
+                    )
+                },
+                src::HOFSTETTER,
+            );
+        }
     }
     let suggested = round_to_step(near::add_keeping_half(WORKING_DISTANCE, mean), 0.25);
     out.push(

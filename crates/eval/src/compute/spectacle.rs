@@ -15,7 +15,7 @@ use parax_optics::prism::{self, prentice, Prism};
 use parax_optics::refraction::SphCyl;
 use parax_optics::tilt::{self, Tilt};
 use parax_optics::verify::{self, Check};
-use parax_optics::vertex::{round_sphcyl, transfer_sphcyl};
+use parax_optics::vertex::{round_order, transfer_sphcyl};
 
 /// `spectacle-lens.right` or `spectacle-lens.left`.
 pub fn block_id(l: &SpectacleLens) -> String {
@@ -395,13 +395,13 @@ pub(super) fn compute(
                 src::TILT_MATRIX,
             )
             .caution = Some(src::CAUTION_ORDER);
-            let rounded = round_sphcyl(&order, 0.25);
+            let rounded = round_order(&order, 0.25);
             out.push(
                 "compensated-rounded",
-                "power to order, to 0.25 D",
+                "power to order, to 0.25 D and whole degrees",
                 sphcyl(&rounded),
                 l.span,
-                "sphere and cylinder each rounded to the nearest 0.25 D",
+                "sphere and cylinder each rounded to the nearest 0.25 D, the axis to the nearest degree",
                 || {
                     format!(
                         "{} → {}",
@@ -409,7 +409,7 @@ pub(super) fn compute(
                         sphcyl(&rounded).display()
                     )
                 },
-                src::ROUNDING,
+                src::ROUNDING_ORDER,
             )
             .caution = Some(src::CAUTION_ORDER);
         }
