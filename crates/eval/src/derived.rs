@@ -177,8 +177,9 @@ pub fn fmt_sphcyl(s: f64, c: f64, axis: f64) -> String {
 
 /// Format an axis as a whole number of degrees in 1..=180.
 pub fn fmt_axis(axis: f64) -> String {
-    let a = axis.round() as i64;
-    let a = if a <= 0 { a + 180 } else { a };
+    // 0 is written 180, and an axis that rounds past 180 wraps to the start
+    // (common practice, no source: axes are written 1–180).
+    let a = (axis.round() as i64 - 1).rem_euclid(180) + 1;
     format!("{a}")
 }
 
@@ -324,5 +325,27 @@ fn sphcyl_difference(old: (f64, f64, f64), new: (f64, f64, f64)) -> Difference {
         sphere: d.sphere,
         cylinder: d.cylinder,
         axis: d.axis,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::fmt_axis;
+
+    /// Axes are written as whole degrees 1–180 (common practice, no source).
+    #[test]
+    fn axes_are_written_one_to_one_eighty() {
+        for (axis, text) in [
+            (0.0, "180"),
+            (0.4, "180"),
+            (0.6, "1"),
+            (90.0, "90"),
+            (179.6, "180"),
+            (180.0, "180"),
+            (180.6, "1"),
+            (-10.0, "170"),
+        ] {
+            assert_eq!(fmt_axis(axis), text, "axis {axis}");
+        }
     }
 }
