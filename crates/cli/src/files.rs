@@ -56,7 +56,15 @@ pub fn read(path: &Path) -> Result<String, String> {
             .map_err(|e| format!("<stdin>: {e}"))?;
         return Ok(s);
     }
-    std::fs::read_to_string(path).map_err(|e| format!("{}: {e}", path.display()))
+    let text = std::fs::read_to_string(path).map_err(|e| format!("{}: {e}", path.display()))?;
+    if text.len() > parax_syntax::MAX_SOURCE_BYTES {
+        return Err(format!(
+            "{}: {} bytes; parax reads files under 4 GiB (P0005)",
+            path.display(),
+            text.len()
+        ));
+    }
+    Ok(text)
 }
 
 /// The name to show for a path.

@@ -121,7 +121,11 @@ fn table(text: &str, label: &str) {
             count += v.len()
         })
     });
-    row("  values handed over block by block (`parax check`)", peak, held);
+    row(
+        "  values handed over block by block (`parax check`)",
+        peak,
+        held,
+    );
     assert_eq!(count, derived, "every value is handed over");
     drop(both);
     let (peak, held, case) =

@@ -169,7 +169,7 @@ pub fn evaluate_incremental(parsed: &Parsed, previous: Option<Evaluation>) -> Ev
                 r = m.derived.end;
                 EyeMemo {
                     key,
-                    base: block.start,
+                    base: block.start(),
                     derived: start..w,
                     diags: m.diags.iter().map(|d| shift_diag(d.clone(), by)).collect(),
                     expects: m
@@ -197,7 +197,7 @@ pub fn evaluate_incremental(parsed: &Parsed, previous: Option<Evaluation>) -> Ev
                 waiting.push(eyes.len());
                 EyeMemo {
                     key,
-                    base: block.start,
+                    base: block.start(),
                     derived: start..fresh.len(),
                     diags,
                     expects,

@@ -22,9 +22,9 @@ pub fn lower(p: &Parsed, diags: &mut Vec<Diagnostic>) -> Case {
 
 fn statement_span(p: &Parsed, line: usize) -> Span {
     let l = &p.lines[line];
-    let end = l.comment.map_or(l.span.end, |c| c.start);
-    let text = &p.source[l.span.start..end];
-    let start = l.span.start + (text.len() - text.trim_start().len());
+    let end = l.comment.map_or(l.span.end(), |c| c.start());
+    let text = &p.source[l.span.start()..end];
+    let start = l.span.start() + (text.len() - text.trim_start().len());
     Span::new(start, start + text.trim().len())
 }
 

@@ -33,7 +33,7 @@ fn files() -> Vec<String> {
 }
 
 /// Key, text, span and substituted formula of each value.
-fn summary(values: &[Derived]) -> Vec<(String, String, (usize, usize), String)> {
+fn summary(values: &[Derived]) -> Vec<(String, String, (u32, u32), String)> {
     values
         .iter()
         .map(|d| {
@@ -61,8 +61,18 @@ fn same(text: &str) -> Result<usize, TestCaseError> {
             seen.extend_from_slice(v)
         });
         prop_assert!(each.derived.is_empty(), "values are handed over, not kept");
-        prop_assert_eq!(summary(&seen), summary(&full.derived), "values of {:?}", text);
-        prop_assert_eq!(&each.diagnostics, &full.diagnostics, "diagnostics of {:?}", text);
+        prop_assert_eq!(
+            summary(&seen),
+            summary(&full.derived),
+            "values of {:?}",
+            text
+        );
+        prop_assert_eq!(
+            &each.diagnostics,
+            &full.diagnostics,
+            "diagnostics of {:?}",
+            text
+        );
         prop_assert_eq!(&each.case, &full.case);
     }
     Ok(calls)

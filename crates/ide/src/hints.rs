@@ -68,8 +68,13 @@ pub fn inlay_hints(a: &Analysis, range: Option<Span>) -> Vec<InlayHint> {
             .join("\n");
         // End of the text before any trailing comment, so the hint reads after the values.
         let end = match line.comment {
-            Some(c) => a.parsed.source[line.span.start..c.start].trim_end().len() + line.span.start,
-            None => line.span.end,
+            Some(c) => {
+                a.parsed.source[line.span.start()..c.start()]
+                    .trim_end()
+                    .len()
+                    + line.span.start()
+            }
+            None => line.span.end(),
         };
         out.push(InlayHint {
             offset: end,

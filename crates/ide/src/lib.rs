@@ -59,7 +59,7 @@ impl Analysis {
             .derived
             .iter()
             .enumerate()
-            .map(|(i, d)| (d.span.start, i))
+            .map(|(i, d)| (d.span.start(), i))
             .collect();
         sort_nearly_sorted(&mut keyed);
         let by_start = keyed.into_iter().map(|(_, i)| i).collect();
