@@ -273,7 +273,7 @@ impl<'a> Out<'a> {
         span: Span,
         formula: &'static str,
         substituted: impl FnOnce() -> String,
-        source: Source,
+        source: &'static Source,
     ) -> &mut Derived {
         let substituted = if self.derivations {
             substituted()
