@@ -57,7 +57,7 @@ fn render(source: &str) -> (String, parax_eval::Evaluation, Parsed) {
             } else {
                 format!(
                     " indent={:?}",
-                    &parsed.source[line.span.start..line.span.start + line.indent]
+                    &parsed.source[line.span.start()..line.span.start() + line.indent as usize]
                 )
             };
         let comment = line
@@ -102,8 +102,8 @@ fn render(source: &str) -> (String, parax_eval::Evaluation, Parsed) {
             b.kind.keyword(),
             b.header + 1,
             b.end,
-            pos(&parsed, b.span.start),
-            pos(&parsed, b.span.end)
+            pos(&parsed, b.span.start()),
+            pos(&parsed, b.span.end())
         );
     }
     let _ = writeln!(out, "-- diagnostics");
@@ -111,7 +111,7 @@ fn render(source: &str) -> (String, parax_eval::Evaluation, Parsed) {
         let _ = writeln!(
             out,
             "{} {} {} {}",
-            pos(&parsed, d.span.start),
+            pos(&parsed, d.span.start()),
             d.code,
             d.severity.name(),
             d.message
@@ -126,8 +126,8 @@ fn render(source: &str) -> (String, parax_eval::Evaluation, Parsed) {
                 .map(|e| {
                     format!(
                         "{}..{} -> {:?}",
-                        pos(&parsed, e.span.start),
-                        pos(&parsed, e.span.end),
+                        pos(&parsed, e.span.start()),
+                        pos(&parsed, e.span.end()),
                         e.text
                     )
                 })
@@ -221,7 +221,7 @@ fn first_position(stem: &str, code: &str) -> (usize, usize) {
         .iter()
         .find(|d| d.code == code)
         .unwrap_or_else(|| panic!("{stem}: no {code}"));
-    parsed.index.line_col(&parsed.source, d.span.start)
+    parsed.index.line_col(&parsed.source, d.span.start())
 }
 
 #[test]

@@ -132,9 +132,9 @@ fn assert_spans_slice(parsed: &Parsed, ev: &parax_eval::Evaluation) {
     let src = &parsed.source;
     let ok = |s: parax_syntax::Span| {
         s.start <= s.end
-            && s.end <= src.len()
-            && src.is_char_boundary(s.start)
-            && src.is_char_boundary(s.end)
+            && s.end() <= src.len()
+            && src.is_char_boundary(s.start())
+            && src.is_char_boundary(s.end())
     };
     for line in &parsed.lines {
         assert!(ok(line.span), "line span {:?}", line.span);
@@ -147,7 +147,7 @@ fn assert_spans_slice(parsed: &Parsed, ev: &parax_eval::Evaluation) {
     }
     for d in &ev.diagnostics {
         assert!(ok(d.span), "{} span {:?}", d.code, d.span);
-        let _ = parsed.index.line_col(src, d.span.start);
+        let _ = parsed.index.line_col(src, d.span.start());
         for e in d.fix.iter().flat_map(|f| &f.edits) {
             assert!(ok(e.span), "{} fix span {:?}", d.code, e.span);
         }

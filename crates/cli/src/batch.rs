@@ -130,7 +130,7 @@ pub fn rows_of(path: &Path) -> Vec<Row> {
         .filter(|d| d.severity == Severity::Error)
         .collect();
     if let Some(first) = errors.first() {
-        let (line, col) = parsed.index.line_col(&parsed.source, first.span.start);
+        let (line, col) = parsed.index.line_col(&parsed.source, first.span.start());
         return vec![error_row(format!(
             "{file}:{line}:{col}: {} {} ({} error{} in the file)",
             first.code,

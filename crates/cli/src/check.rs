@@ -2,7 +2,7 @@
 
 use crate::render::{human, json, sarif};
 use crate::{files, Format};
-use parax_eval::{evaluate_source_with, EvalOptions, Severity};
+use parax_eval::{evaluate_source_each, EvalOptions, Severity};
 use rayon::prelude::*;
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -24,7 +24,9 @@ fn check_one(
 ) -> Result<(Checked, Option<serde_json::Value>), String> {
     let source = files::read(path)?;
     let name = files::display(path);
-    let (parsed, ev) = evaluate_source_with(&source, EvalOptions::VALUES_ONLY);
+    // Only diagnostics are shown: each block's values are dropped once its
+    // `expect` lines are judged, so memory holds one block's values at a time.
+    let (parsed, ev) = evaluate_source_each(&source, EvalOptions::VALUES_ONLY, &mut |_| {});
     let mut counts = [0; 3];
     for d in &ev.diagnostics {
         counts[match d.severity {

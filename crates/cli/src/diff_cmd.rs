@@ -73,15 +73,15 @@ fn block_of(parsed: &Parsed, offset: usize) -> String {
     parsed
         .blocks
         .iter()
-        .find(|b| b.span.start <= offset && offset <= b.span.end)
+        .find(|b| b.span.start() <= offset && offset <= b.span.end())
         .map(|b| header_text(parsed, b.header))
         .unwrap_or_else(|| "(outside any block)".into())
 }
 
 fn header_text(parsed: &Parsed, line: usize) -> String {
     let l = &parsed.lines[line];
-    let end = l.comment.map_or(l.span.end, |c| c.start);
-    squash(&parsed.source[l.span.start..end])
+    let end = l.comment.map_or(l.span.end(), |c| c.start());
+    squash(&parsed.source[l.span.start()..end])
 }
 
 fn squash(s: &str) -> String {
@@ -102,8 +102,8 @@ fn inputs(parsed: &Parsed) -> BTreeMap<String, BTreeMap<(String, usize), Input>>
             let kw = parsed.keyword(st).to_owned();
             let n = seen.entry(kw.clone()).or_default();
             *n += 1;
-            let end = l.comment.map_or(l.span.end, |c| c.start);
-            let text = squash(&parsed.source[st.keyword.end.min(end)..end]);
+            let end = l.comment.map_or(l.span.end(), |c| c.start());
+            let text = squash(&parsed.source[st.keyword.end().min(end)..end]);
             entry.insert((kw, *n), Input { text, line: i + 1 });
         }
     }
@@ -177,12 +177,12 @@ fn compare<'a>(old: &'a Version, new: &'a Version) -> Vec<(String, BlockChanges<
         new.ev.derived.iter().map(|d| (d.key(), d)).collect();
     let mut keys: Vec<(String, &str, String)> = Vec::new();
     for d in &old.ev.derived {
-        keys.push((d.key(), &d.name, block_of(&old.parsed, d.span.start)));
+        keys.push((d.key(), &d.name, block_of(&old.parsed, d.span.start())));
     }
     for d in &new.ev.derived {
         let key = d.key();
         if !old_values.contains_key(&key) {
-            keys.push((key, &d.name, block_of(&new.parsed, d.span.start)));
+            keys.push((key, &d.name, block_of(&new.parsed, d.span.start())));
         }
     }
     for (key, name, block) in keys {

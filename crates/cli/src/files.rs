@@ -49,14 +49,32 @@ fn is_hidden_or_build(p: &Path, root: &Path) -> bool {
 }
 
 /// Read a file (or standard input for `-`) as UTF-8.
+/// A file of 4 GiB or more is refused (`P0005`: spans hold 32-bit offsets),
+/// by its size before reading when the file system tells it.
 pub fn read(path: &Path) -> Result<String, String> {
-    if path.as_os_str() == "-" {
+    let too_large = |bytes: u64| {
+        format!(
+            "{}: {bytes} bytes; parax reads files under 4 GiB (P0005)",
+            display(path)
+        )
+    };
+    let text = if path.as_os_str() == "-" {
         let mut s = String::new();
         std::io::Read::read_to_string(&mut std::io::stdin(), &mut s)
             .map_err(|e| format!("<stdin>: {e}"))?;
-        return Ok(s);
+        s
+    } else {
+        if let Ok(meta) = std::fs::metadata(path) {
+            if meta.len() > parax_syntax::MAX_SOURCE_BYTES as u64 {
+                return Err(too_large(meta.len()));
+            }
+        }
+        std::fs::read_to_string(path).map_err(|e| format!("{}: {e}", path.display()))?
+    };
+    if text.len() > parax_syntax::MAX_SOURCE_BYTES {
+        return Err(too_large(text.len() as u64));
     }
-    std::fs::read_to_string(path).map_err(|e| format!("{}: {e}", path.display()))
+    Ok(text)
 }
 
 /// The name to show for a path.

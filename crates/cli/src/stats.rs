@@ -7,7 +7,7 @@ use crate::batch::evaluate_all_with;
 use crate::files;
 use crate::render::human;
 use parax_eval::model::Side;
-use parax_eval::{evaluate_source_with, DerivedValue, EvalOptions, Severity, GENERAL_CAUTION};
+use parax_eval::{evaluate_source_each, DerivedValue, EvalOptions, Severity, GENERAL_CAUTION};
 use parax_optics::cohort::{summarize, CohortSummary};
 use parax_optics::PowerVector;
 use serde_json::json;
@@ -48,18 +48,33 @@ struct Sample {
 fn samples_of(path: &Path, group_by: GroupBy) -> Result<Vec<Sample>, String> {
     let source = files::read(path)?;
     let name = files::display(path);
-    let (parsed, ev) = evaluate_source_with(&source, EvalOptions::VALUES_ONLY);
+    // Only the three power-vector components of the eye blocks are read: keep
+    // those as the values are handed over, drop the rest.
+    let mut kept = Vec::new();
+    let (parsed, ev) = evaluate_source_each(&source, EvalOptions::VALUES_ONLY, &mut |values| {
+        kept.extend(
+            values
+                .iter()
+                .filter(|d| {
+                    d.block.starts_with("eye.")
+                        && matches!(
+                            &*d.name,
+                            "spherical-equivalent" | "vector-j0" | "vector-j45"
+                        )
+                })
+                .cloned(),
+        )
+    });
     if let Some(d) = ev
         .diagnostics
         .iter()
         .find(|d| d.severity == Severity::Error)
     {
-        let (line, col) = parsed.index.line_col(&parsed.source, d.span.start);
+        let (line, col) = parsed.index.line_col(&parsed.source, d.span.start());
         return Err(format!("{name}:{line}:{col}: {} {}", d.code, d.message));
     }
     let power = |key: &str| {
-        ev.derived
-            .iter()
+        kept.iter()
             .find(|d| d.is_key(key))
             .and_then(|d| match d.value {
                 DerivedValue::Power { dioptres } => Some(dioptres),

@@ -183,6 +183,22 @@ fn exit_codes() {
     assert_eq!(code(&o), 2);
     assert!(stderr(&o).contains(missing), "{}", stderr(&o));
     assert_eq!(code(&parax(&["check", "examples", missing])), 2);
+    // 2: a file of 4 GiB or more (sparse: nothing is written) is refused by its
+    // size, with P0005, and `fmt` leaves it alone.
+    let huge = dir.join("huge.parax");
+    std::fs::File::create(&huge)
+        .and_then(|f| f.set_len(u64::from(u32::MAX) + 1))
+        .expect("sparse file");
+    let huge = huge.to_str().expect("UTF-8 temp path");
+    let o = parax(&["check", huge]);
+    assert_eq!(code(&o), 2);
+    assert!(stderr(&o).contains("P0005"), "{}", stderr(&o));
+    assert_eq!(code(&parax(&["fmt", huge])), 2);
+    assert_eq!(
+        std::fs::metadata(huge).expect("still there").len(),
+        u64::from(u32::MAX) + 1
+    );
+    std::fs::remove_file(huge).expect("remove the sparse file");
     assert_eq!(code(&parax(&["eval", missing])), 2);
     assert_eq!(code(&parax(&["fmt", "--check", missing])), 2);
     // 2: usage errors.

@@ -113,7 +113,20 @@ fn table(text: &str, label: &str) {
     drop(both);
     let (peak, held, both) =
         measure(|| parax_eval::evaluate_source_with(text, parax_eval::EvalOptions::VALUES_ONLY));
-    row("  the same, values only (as `parax check`)", peak, held);
+    row("  the same, values only", peak, held);
+    drop(both);
+    let mut count = 0;
+    let (peak, held, both) = measure(|| {
+        parax_eval::evaluate_source_each(text, parax_eval::EvalOptions::VALUES_ONLY, &mut |v| {
+            count += v.len()
+        })
+    });
+    row(
+        "  values handed over block by block (`parax check`)",
+        peak,
+        held,
+    );
+    assert_eq!(count, derived, "every value is handed over");
     drop(both);
     let (peak, held, case) =
         measure(|| serde_json::from_str::<parax_eval::Case>(&json).expect("valid JSON"));

@@ -26,6 +26,7 @@ codes! {
     UNKNOWN_BLOCK = "P0002", "unknown block", "A line at column 0 must open a block (case, eye, frame, spectacle-lens, contact-lens, system, model-eye).";
     OUTSIDE_BLOCK = "P0003", "statement outside a block", "An indented statement stands before the first block header.";
     UNTERMINATED_STRING = "P0004", "unterminated text", "A quoted text has no closing quote on its line.";
+    TOO_LARGE = "P0005", "file too large", "The file is 4 GiB or larger; parax reads files under 4 GiB (byte positions are 32-bit) and reads nothing of this one.";
     UNKNOWN_KEYWORD = "P0101", "unknown keyword", "The block does not accept this keyword; the hint names the closest one it does.";
     BAD_VALUES = "P0102", "values do not fit", "The values after the keyword do not have the shape the keyword takes (see docs/notation.md).";
     DUPLICATE = "P0103", "repeated statement", "A keyword that may appear once per block appears again; the later one is ignored.";

@@ -33,8 +33,9 @@ pub struct Derivation {
     /// ([`EvalOptions::derivations`](crate::EvalOptions) false, as `parax check`
     /// does); every evaluation through [`crate::evaluate`] writes it.
     pub substituted: String,
-    /// Where the method is published.
-    pub source: Source,
+    /// Where the method is published (one of the constants of
+    /// [`crate::sources`], shared: 8 bytes per value instead of 32).
+    pub source: &'static Source,
 }
 
 /// The value itself. Numbers are in base units: dioptres, metres, degrees.

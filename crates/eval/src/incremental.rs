@@ -302,7 +302,7 @@ fn evaluate_with(
                     let reusable = diags.iter().all(|d| diag_inside(d, b.span));
                     mid_memos.push(BlockMemo {
                         text: parsed.text(b.span).to_owned(),
-                        start: b.span.start,
+                        start: b.span.start(),
                         eye,
                         diags,
                         reusable,

@@ -136,6 +136,82 @@ pub fn evaluate_case_with(case: &Case, options: EvalOptions) -> (Vec<Derived>, V
     (derived, diags)
 }
 
+/// Evaluate `parsed` and hand the derived values to `each`, one block at a time,
+/// instead of collecting them: each block's values are computed, its `expect`
+/// lines judged against them, then they are passed to `each` and dropped, so the
+/// evaluation holds one block's values at a time whatever the file's size.
+/// `each` keeps what it needs (a few keys, a count), or nothing (`parax check`).
+///
+/// The returned [`Evaluation`] has the case and every diagnostic, exactly as
+/// [`evaluate_with`] gives them, and an empty [`Evaluation::derived`]. The values
+/// reach `each` in the order of [`Evaluation::derived`]. When two blocks share an
+/// id (their `expect` lines then look up values across both), the values are
+/// collected first and `each` is called once with all of them.
+pub fn evaluate_each(
+    parsed: &Parsed,
+    options: EvalOptions,
+    each: &mut dyn FnMut(&[Derived]),
+) -> Evaluation {
+    let mut diagnostics: Vec<Diagnostic> = parsed.errors.iter().map(from_syntax).collect();
+    let case = lower::lower(parsed, &mut diagnostics);
+    diagnostics.extend(evaluate_case_each(&case, options, each));
+    diagnostics.sort_by_key(|d| (d.span.start, d.severity));
+    Evaluation {
+        case,
+        derived: Vec::new(),
+        diagnostics,
+        memo: Default::default(),
+    }
+}
+
+/// Parse and evaluate source text, handing the values to `each` (see
+/// [`evaluate_each`]).
+pub fn evaluate_source_each(
+    source: &str,
+    options: EvalOptions,
+    each: &mut dyn FnMut(&[Derived]),
+) -> (Parsed, Evaluation) {
+    let parsed = parax_syntax::parse(source);
+    let evaluation = evaluate_each(&parsed, options, each);
+    (parsed, evaluation)
+}
+
+/// [`evaluate_case_with`] handing the values to `each` block by block instead of
+/// returning them (see [`evaluate_each`]); returns the diagnostics, in the order
+/// [`evaluate_case_with`] gives them.
+pub fn evaluate_case_each(
+    case: &Case,
+    options: EvalOptions,
+    each: &mut dyn FnMut(&[Derived]),
+) -> Vec<Diagnostic> {
+    let ids = compute::block_ids(case);
+    let mut seen = std::collections::HashSet::with_capacity(ids.len());
+    if !ids.iter().all(|id| seen.insert(id.as_str())) {
+        let (derived, diags) = evaluate_case_with(case, options);
+        each(&derived);
+        return diags;
+    }
+    drop(seen);
+    drop(ids);
+    let mut diags = Vec::new();
+    // `expect` findings after the computation's, as `evaluate_case_with` orders them.
+    let mut expect_diags = Vec::new();
+    let mut buf = Vec::new();
+    compute::compute_each(
+        case,
+        options.derivations,
+        &mut buf,
+        &mut diags,
+        &mut |id, expects, buf, start| {
+            expect::check(id, expects, &buf[start..], &mut expect_diags);
+            each(&buf[start..]);
+            buf.truncate(start);
+        },
+    );
+    diags.append(&mut expect_diags);
+    diags
+}
+
 /// The range of each block id's values in `derived` (each block's values are
 /// pushed together).
 fn block_ranges(derived: &[Derived]) -> std::collections::HashMap<&str, (usize, usize)> {

@@ -14,6 +14,17 @@ use parax_syntax::{Block, BlockKind, LineKind, Parsed, Span, Symbol, Value, Valu
 /// Read every block of `p` into a [`Case`], appending diagnostics to `diags`.
 pub fn lower(p: &Parsed, diags: &mut Vec<Diagnostic>) -> Case {
     let mut case = Case::default();
+    // One entry per block at most: size each list once (a long history holds
+    // tens of thousands of eye blocks; a growing vector keeps up to half spare).
+    let count = |k: BlockKind| p.blocks.iter().filter(|b| b.kind == k).count();
+    case.eyes.reserve_exact(count(BlockKind::Eye));
+    case.frames.reserve_exact(count(BlockKind::Frame));
+    case.systems.reserve_exact(count(BlockKind::System));
+    case.spectacle_lenses
+        .reserve_exact(count(BlockKind::SpectacleLens));
+    case.contact_lenses
+        .reserve_exact(count(BlockKind::ContactLens));
+    case.model_eyes.reserve_exact(count(BlockKind::ModelEye));
     for block in &p.blocks {
         lower_block(p, block, &mut case, diags);
     }
@@ -22,9 +33,9 @@ pub fn lower(p: &Parsed, diags: &mut Vec<Diagnostic>) -> Case {
 
 fn statement_span(p: &Parsed, line: usize) -> Span {
     let l = &p.lines[line];
-    let end = l.comment.map_or(l.span.end, |c| c.start);
-    let text = &p.source[l.span.start..end];
-    let start = l.span.start + (text.len() - text.trim_start().len());
+    let end = l.comment.map_or(l.span.end(), |c| c.start());
+    let text = &p.source[l.span.start()..end];
+    let start = l.span.start() + (text.len() - text.trim_start().len());
     Span::new(start, start + text.trim().len())
 }
 

@@ -71,7 +71,10 @@ impl<'a> Reader<'a> {
 
     /// Report that `what` is missing at the end of the statement.
     pub fn missing<T>(&mut self, what: &str, form: &str) -> Option<T> {
-        let end = self.values.last().map_or(self.keyword.end, |v| v.span.end);
+        let end = self
+            .values
+            .last()
+            .map_or(self.keyword.end(), |v| v.span.end());
         self.fail(Span::new(end, end), format!("{what} is missing here"), form)
     }
 
@@ -273,7 +276,7 @@ impl<'a> Reader<'a> {
                         )
                         .fix(
                             "remove the unit",
-                            Span::new(number.end, u_span.end),
+                            Span::new(number.end(), u_span.end()),
                             "",
                         ),
                     );
@@ -331,7 +334,7 @@ impl<'a> Reader<'a> {
                             "every physical quantity carries its unit; the {} is usually written in {usual}",
                             spec.what
                         ))
-                        .fix(format!("add the unit `{usual}`"), Span::new(number.end, number.end), format!("{sep}{usual}")),
+                        .fix(format!("add the unit `{usual}`"), Span::new(number.end(), number.end()), format!("{sep}{usual}")),
                     );
                     return None;
                 }

@@ -7,7 +7,7 @@ use crate::derived::Source;
 macro_rules! source {
     ($name:ident, $tag:literal, $citation:literal) => {
         #[doc = $citation]
-        pub const $name: Source = Source {
+        pub const $name: &Source = &Source {
             citation: $citation,
             tag: $tag,
         };

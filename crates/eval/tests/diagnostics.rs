@@ -7,7 +7,7 @@ fn diags(src: &str) -> Vec<(String, usize, usize, Diagnostic)> {
     ev.diagnostics
         .into_iter()
         .map(|d| {
-            let (l, c) = p.index.line_col(&p.source, d.span.start);
+            let (l, c) = p.index.line_col(&p.source, d.span.start());
             (d.code.to_owned(), l, c, d)
         })
         .collect()
@@ -156,6 +156,7 @@ fn syntax_codes_agree_with_the_code_table() {
             s::UNTERMINATED_STRING,
             parax_eval::codes::UNTERMINATED_STRING,
         ),
+        (s::TOO_LARGE, parax_eval::codes::TOO_LARGE),
     ] {
         assert_eq!(syn, table);
     }

@@ -78,7 +78,7 @@ const PIECES: &[&str] = &[
 fn summary(e: &Evaluation) -> Vec<(String, String, (usize, usize))> {
     e.derived
         .iter()
-        .map(|d| (d.key(), d.text(), (d.span.start, d.span.end)))
+        .map(|d| (d.key(), d.text(), (d.span.start(), d.span.end())))
         .collect()
 }
 

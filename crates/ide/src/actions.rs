@@ -62,8 +62,8 @@ pub fn code_actions(a: &Analysis, range: Span) -> Vec<Action> {
             }
         }
     }
-    let first = a.line_at(range.start);
-    let last = a.line_at(range.end);
+    let first = a.line_at(range.start());
+    let last = a.line_at(range.end());
     for li in first..=last {
         let line = &a.parsed.lines[li];
         transpose(a, line, &mut out);
@@ -125,7 +125,7 @@ fn transpose(a: &Analysis, line: &Line, out: &mut Vec<Action>) {
         title: format!("transpose to {form}-cylinder form: {}", d.text()),
         kind: ActionKind::Rewrite,
         edits: vec![Edit {
-            span: Span::new(vals[0].span.start, axis.span.end),
+            span: Span::new(vals[0].span.start(), axis.span.end()),
             text: d.text(),
         }],
         diagnostic: None,
@@ -172,7 +172,7 @@ fn axis_and_units(a: &Analysis, line: &Line, range: Span, out: &mut Vec<Action>)
                 continue;
             }
             let converted = to.from_base(from.to_base(*value));
-            let text = number_text(converted, *decimals, from, to);
+            let text = number_text(converted, u32::from(*decimals), from, to);
             out.push(Action {
                 title: format!("convert to {}: {text} {}", to.symbol(), to.symbol()),
                 kind: ActionKind::Rewrite,
@@ -235,7 +235,7 @@ fn record(a: &Analysis, li: usize, out: &mut Vec<Action>) {
                 .fold(None::<Span>, |acc, v| {
                     Some(acc.map_or(v.span, |s| s.cover(v.span)))
                 })
-                .unwrap_or(Span::new(name.span.end, name.span.end));
+                .unwrap_or(Span::new(name.span.end(), name.span.end()));
             Some((a.parsed.text(name.span).to_string(), span))
         })
         .collect();
@@ -287,7 +287,7 @@ fn record(a: &Analysis, li: usize, out: &mut Vec<Action>) {
                 continue;
             }
             // Insert after the block's last line.
-            let at = last_line.span.end;
+            let at = last_line.span.end();
             out.push(Action {
                 title: format!("record `expect {} {}`", d.name, d.text()),
                 kind: ActionKind::Record,

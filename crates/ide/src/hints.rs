@@ -37,7 +37,7 @@ pub fn inlay_hints(a: &Analysis, range: Option<Span>) -> Vec<InlayHint> {
     // screenful costs the same in a short file and a long one.
     let lines = match range {
         Some(r) => {
-            let first = a.line_at(r.start);
+            let first = a.line_at(r.start());
             &a.parsed.lines[first.min(a.parsed.lines.len())..]
         }
         None => &a.parsed.lines[..],
@@ -90,8 +90,13 @@ pub fn inlay_hints(a: &Analysis, range: Option<Span>) -> Vec<InlayHint> {
         }
         // End of the text before any trailing comment, so the hint reads after the values.
         let end = match line.comment {
-            Some(c) => a.parsed.source[line.span.start..c.start].trim_end().len() + line.span.start,
-            None => line.span.end,
+            Some(c) => {
+                a.parsed.source[line.span.start()..c.start()]
+                    .trim_end()
+                    .len()
+                    + line.span.start()
+            }
+            None => line.span.end(),
         };
         out.push(InlayHint {
             offset: end,

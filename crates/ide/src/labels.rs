@@ -70,7 +70,7 @@ fn uses(a: &Analysis, def: &LabelDef) -> Vec<Span> {
             } else if kw == "expect" && i == 0 {
                 if let Some(rest) = text.strip_prefix(def.name.as_str()) {
                     if rest.starts_with('.') {
-                        out.push(Span::new(v.span.start, v.span.start + def.name.len()));
+                        out.push(Span::new(v.span.start(), v.span.start() + def.name.len()));
                     }
                 }
             }

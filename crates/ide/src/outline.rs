@@ -41,7 +41,7 @@ pub fn symbols(a: &Analysis) -> Vec<Symbol> {
                 .iter()
                 .filter(|d| d.block == b.span)
                 .map(|d| {
-                    let line = a.line_at(d.span.start);
+                    let line = a.line_at(d.span.start());
                     Symbol {
                         name: d.name.clone(),
                         detail: "lens".into(),

@@ -62,7 +62,7 @@ pub fn tokens(a: &Analysis) -> Vec<Token> {
         let defs = labels::definitions(a);
         let mut v: Vec<Span> = defs.iter().map(|d| d.span).collect();
         for d in &defs {
-            v.extend(labels::references(a, d.span.start, false));
+            v.extend(labels::references(a, d.span.start(), false));
         }
         v
     };
@@ -96,7 +96,7 @@ pub fn tokens(a: &Analysis) -> Vec<Token> {
                     ValueKind::Word => {
                         if let Some(l) = label_spans.iter().find(|l| l.start == v.span.start) {
                             push(*l, TokenClass::Label);
-                            push(Span::new(l.end, v.span.end), TokenClass::Word);
+                            push(Span::new(l.end(), v.span.end()), TokenClass::Word);
                         } else {
                             push(v.span, TokenClass::Word);
                         }
@@ -107,7 +107,7 @@ pub fn tokens(a: &Analysis) -> Vec<Token> {
         if let Some(c) = line.comment {
             let text = a.parsed.text(c);
             push(
-                Span::new(c.start, c.start + text.trim_end_matches('\r').len()),
+                Span::new(c.start(), c.start() + text.trim_end_matches('\r').len()),
                 TokenClass::Comment,
             );
         }

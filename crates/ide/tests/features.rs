@@ -10,7 +10,7 @@ fn apply(src: &str, edits: &[parax_ide::Edit]) -> String {
     let mut e = edits.to_vec();
     e.sort_by_key(|e| std::cmp::Reverse(e.span.start));
     for e in e {
-        out.replace_range(e.span.start..e.span.end, &e.text);
+        out.replace_range(e.span.start()..e.span.end(), &e.text);
     }
     out
 }
@@ -68,11 +68,11 @@ fn labels_definitions_and_references() {
     let a = Analysis::new(RELAY);
     let use_a = RELAY.find("before A").unwrap() + 7;
     let def = labels::definition(&a, use_a).expect("defined");
-    assert_eq!(&RELAY[def.start..def.end], "A");
-    assert_eq!(def.start, RELAY.find("lens A").unwrap() + 5);
-    assert_eq!(labels::references(&a, def.start, true).len(), 2);
+    assert_eq!(&RELAY[def.start()..def.end()], "A");
+    assert_eq!(def.start(), RELAY.find("lens A").unwrap() + 5);
+    assert_eq!(labels::references(&a, def.start(), true).len(), 2);
     assert_eq!(
-        labels::references(&a, def.start, false),
+        labels::references(&a, def.start(), false),
         vec![parax_syntax::Span::new(use_a, use_a + 1)]
     );
     assert!(labels::definition(&a, 0).is_none());

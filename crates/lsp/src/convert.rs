@@ -26,7 +26,10 @@ pub fn position(a: &Analysis, offset: usize, unit: ColumnUnit) -> lsp::Position 
 
 /// LSP range of a byte span.
 pub fn range(a: &Analysis, span: Span, unit: ColumnUnit) -> lsp::Range {
-    lsp::Range::new(position(a, span.start, unit), position(a, span.end, unit))
+    lsp::Range::new(
+        position(a, span.start(), unit),
+        position(a, span.end(), unit),
+    )
 }
 
 /// Byte span of an LSP range (clamped, and put in order).

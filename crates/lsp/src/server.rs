@@ -598,8 +598,8 @@ impl LanguageServer for Server {
         let mut data = Vec::new();
         let (mut line, mut col) = (0u32, 0u32);
         for t in tokens::tokens(&a) {
-            let s = convert::position(&a, t.span.start, unit);
-            let e = convert::position(&a, t.span.end, unit);
+            let s = convert::position(&a, t.span.start(), unit);
+            let e = convert::position(&a, t.span.end(), unit);
             let delta_line = s.line - line;
             let delta_start = if delta_line == 0 {
                 s.character - col

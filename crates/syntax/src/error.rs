@@ -28,4 +28,6 @@ pub mod codes {
     pub const OUTSIDE_BLOCK: &str = "P0003";
     /// A string without its closing quote.
     pub const UNTERMINATED_STRING: &str = "P0004";
+    /// A text of 4 GiB or more: spans hold 32-bit offsets, so it is not read.
+    pub const TOO_LARGE: &str = "P0005";
 }

@@ -14,6 +14,10 @@ pub const INDENT: &str = "  ";
 
 /// Format a whole file. Idempotent: formatting the result again returns it unchanged.
 pub fn format(parsed: &Parsed) -> String {
+    if parsed.errors.first().map(|e| e.code) == Some(crate::codes::TOO_LARGE) {
+        // Not read (too large for 32-bit offsets): left exactly as it is.
+        return parsed.source.clone();
+    }
     let eol = if parsed
         .source
         .split('\n')

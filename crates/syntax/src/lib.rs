@@ -19,5 +19,5 @@ mod tree;
 pub use error::{codes, SyntaxError};
 pub use line_index::{ColumnUnit, LineIndex, LinePos};
 pub use parser::{parse, reparse};
-pub use span::Span;
+pub use span::{Span, MAX_SOURCE_BYTES};
 pub use tree::*;

@@ -135,7 +135,7 @@ impl LineIndex {
             return self.len;
         }
         let span = self.line_span(text, line);
-        let line_text = &text[span.start..span.end];
+        let line_text = &text[span.start()..span.end()];
         let mut remaining = pos.col as usize;
         for (i, ch) in line_text.char_indices() {
             let width = match unit {
@@ -144,11 +144,11 @@ impl LineIndex {
                 ColumnUnit::Char => 1,
             };
             if remaining < width {
-                return span.start + i;
+                return span.start() + i;
             }
             remaining -= width;
         }
-        span.end
+        span.end()
     }
 }
 
@@ -197,7 +197,7 @@ mod tests {
             assert_eq!(idx.offset(text, pos, unit), hash);
         }
         // `\r` of a CRLF is not a column: end of line 2 is after "175".
-        let end2 = idx.line_span(text, 1).end;
+        let end2 = idx.line_span(text, 1).end();
         assert_eq!(&text[end2..end2 + 2], "\r\n");
     }
 

@@ -17,6 +17,9 @@ struct Grammar;
 
 /// Parse a case file. Never fails and never panics; see [`Parsed::errors`].
 pub fn parse(source: &str) -> Parsed {
+    if source.len() > crate::span::MAX_SOURCE_BYTES {
+        return too_large(source);
+    }
     let index = LineIndex::new(source);
     let mut errors = Vec::new();
     let count = index.line_count();
@@ -31,6 +34,27 @@ pub fn parse(source: &str) -> Parsed {
         first = end;
     }
     finish(source.to_owned(), index, lines, errors)
+}
+
+/// A text whose offsets do not fit a [`Span`]: kept as it is, with no line read
+/// and one error at its start.
+fn too_large(source: &str) -> Parsed {
+    Parsed {
+        source: source.to_owned(),
+        lines: Vec::new(),
+        blocks: Vec::new(),
+        errors: vec![SyntaxError {
+            code: codes::TOO_LARGE,
+            message: format!(
+                "the file is {} bytes: parax reads files under 4 GiB",
+                source.len()
+            ),
+            span: Span::new(0, 0),
+            hint: Some("split the case file into smaller files".into()),
+            replacement: None,
+        }],
+        index: LineIndex::new(""),
+    }
 }
 
 /// True when the line starting at byte `at` starts a new chunk for [`parse`]: it
@@ -60,7 +84,7 @@ fn parse_lines(
     let end = if range.end == index.line_count() {
         source.len()
     } else {
-        index.line_span(source, range.end - 1).end
+        index.line_span(source, range.end - 1).end()
     };
     match Grammar::parse(Rule::file, &source[start..end]) {
         Ok(mut pairs) => {
@@ -85,18 +109,18 @@ fn parse_lines(
 /// Parse one line on its own (the line-by-line path). A line the grammar rejects
 /// becomes an error line with its error pushed onto `errors`.
 fn parse_line(source: &str, span: Span, errors: &mut Vec<SyntaxError>) -> Line {
-    let text = &source[span.start..span.end];
+    let text = &source[span.start()..span.end()];
     match Grammar::parse(Rule::line_only, text) {
         Ok(mut pairs) => {
             let pair = pairs.next().expect("line rule yields one pair");
-            walk_line(pair, span, span.start)
+            walk_line(pair, span, span.start())
         }
         Err(e) => {
             let at = match e.location {
                 pest::error::InputLocation::Pos(p) => p,
                 pest::error::InputLocation::Span((s, _)) => s,
             };
-            errors.push(line_error(text, span.start, at));
+            errors.push(line_error(text, span.start(), at));
             Line {
                 span,
                 indent: indent_width(text),
@@ -159,6 +183,14 @@ impl Parsed {
     /// re-parse only the lines it touches; see [`reparse`], which is this on a copy.
     pub fn edit(self, edit: std::ops::Range<usize>, new_text: &str) -> Parsed {
         let old_src = &self.source;
+        if old_src.len().saturating_sub(edit.len()) + new_text.len() > crate::span::MAX_SOURCE_BYTES
+            && edit.start <= edit.end
+            && edit.end <= old_src.len()
+        {
+            let mut text = old_src.clone();
+            text.replace_range(edit, new_text);
+            return parse(&text);
+        }
         if edit.start > edit.end
             || edit.end > old_src.len()
             || !old_src.is_char_boundary(edit.start)
@@ -214,8 +246,8 @@ impl Parsed {
                 let from = blocks.partition_point(|b| b.end <= first);
                 for b in &mut blocks[from..] {
                     b.span = Span::new(
-                        old_lines[b.header].span.start,
-                        old_lines[b.end - 1].span.end,
+                        old_lines[b.header].span.start(),
+                        old_lines[b.end - 1].span.end(),
                     );
                 }
                 return Parsed {
@@ -275,8 +307,9 @@ fn grouping(line: &Line) -> Option<(u8, Option<BlockKind>)> {
     }
 }
 
-fn indent_width(text: &str) -> usize {
-    text.len() - text.trim_start_matches([' ', '\t']).len()
+fn indent_width(text: &str) -> u32 {
+    // A line is part of a text under 4 GiB (checked by `parse`).
+    (text.len() - text.trim_start_matches([' ', '\t']).len()) as u32
 }
 
 /// Turn one `header` / `statement` / `trivia` pair into a [`Line`]. `base` is the
@@ -288,7 +321,7 @@ fn walk_line(pair: Pair<'_, Rule>, span: Span, base: usize) -> Line {
     let mut block = None;
     let pairs = pair.into_inner();
     // Values are most of the tree: allocate exactly as many as the line holds
-    // (a growing vector keeps up to 3 spare slots of a 72-byte value).
+    // (a growing vector keeps up to 3 spare slots of a 40-byte value).
     let is_value = |r: Rule| {
         !matches!(
             r,
@@ -300,7 +333,7 @@ fn walk_line(pair: Pair<'_, Rule>, span: Span, base: usize) -> Line {
     for inner in pairs {
         let s = shift(inner.as_span(), base);
         match inner.as_rule() {
-            Rule::indent => indent = s.len(),
+            Rule::indent => indent = s.len() as u32,
             Rule::keyword => keyword = Some(s),
             Rule::block_kind => {
                 keyword = Some(s);
@@ -321,8 +354,8 @@ fn walk_line(pair: Pair<'_, Rule>, span: Span, base: usize) -> Line {
         _ => LineKind::Trivia,
     };
     if matches!(kind, LineKind::Trivia) {
-        let text_start = comment.map(|c| c.start).unwrap_or(span.end);
-        indent = text_start - span.start;
+        let text_start = comment.map(|c| c.start()).unwrap_or(span.end());
+        indent = (text_start - span.start()) as u32;
     }
     Line {
         span,
@@ -349,7 +382,9 @@ fn walk_value(pair: Pair<'_, Rule>, base: usize) -> Value {
                 Some('+') | Some('-') => (true, text.to_owned()),
                 _ => (false, text.to_owned()),
             };
-            let decimals = digits.split_once('.').map_or(0, |(_, d)| d.len() as u32);
+            let decimals = digits
+                .split_once('.')
+                .map_or(0, |(_, d)| d.len().min(255) as u8);
             ValueKind::Number {
                 number: shift(num.as_span(), base),
                 value: digits.parse().unwrap_or(f64::NAN),
@@ -363,7 +398,7 @@ fn walk_value(pair: Pair<'_, Rule>, base: usize) -> Value {
                 .into_inner()
                 .next()
                 .map(|t| shift(t.as_span(), base))
-                .unwrap_or(Span::new(span.start + 1, span.start + 1));
+                .unwrap_or(Span::new(span.start() + 1, span.start() + 1));
             ValueKind::Text { text }
         }
         Rule::date => {
@@ -390,7 +425,7 @@ fn walk_value(pair: Pair<'_, Rule>, base: usize) -> Value {
 
 /// Explain why one line failed to parse. `at` is pest's failure offset in the line.
 fn line_error(text: &str, base: usize, at: usize) -> SyntaxError {
-    let indent = indent_width(text);
+    let indent = indent_width(text) as usize;
     let body = &text[indent..];
     let first_word: &str = body
         .split(|c: char| !(c.is_alphanumeric() || c == '-' || c == '_'))
@@ -489,7 +524,7 @@ fn group_blocks(source: &str, lines: &mut [Line], errors: &mut Vec<SyntaxError>)
                     kind,
                     header,
                     end: last + 1,
-                    span: Span::new(lines[header].span.start, lines[last].span.end),
+                    span: Span::new(lines[header].span.start(), lines[last].span.end()),
                 });
             }
         };
@@ -503,12 +538,12 @@ fn group_blocks(source: &str, lines: &mut [Line], errors: &mut Vec<SyntaxError>)
             }
             LineKind::Statement { .. } if open.is_none() && !orphaned => {
                 let span = lines[i].span;
-                let text = &source[span.start..span.end];
-                let kw_start = span.start + indent_width(text);
+                let text = &source[span.start()..span.end()];
+                let kw_start = span.start() + indent_width(text) as usize;
                 errors.push(SyntaxError {
                     code: codes::OUTSIDE_BLOCK,
                     message: "this statement stands before any block".into(),
-                    span: Span::new(kw_start, span.end),
+                    span: Span::new(kw_start, span.end()),
                     hint: Some(
                         "put it under a block header such as `eye right` or `case \"…\"`, \
                          or remove its indentation if it opens a block"
@@ -535,4 +570,36 @@ fn group_blocks(source: &str, lines: &mut [Line], errors: &mut Vec<SyntaxError>)
     }
     close(open.take(), lines, &mut blocks);
     blocks
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// What `parse` gives for a text over 4 GiB (the text itself is too large
+    /// for a test): the source kept, no line read, one P0005 error, and the
+    /// formatter leaves it as it is.
+    #[test]
+    fn a_text_too_large_is_refused_and_kept() {
+        let src = "eye right\n  refraction -1.00\n";
+        let p = too_large(src);
+        assert_eq!(p.source, src);
+        assert!(p.lines.is_empty() && p.blocks.is_empty());
+        assert_eq!(p.errors.len(), 1);
+        assert_eq!(p.errors[0].code, codes::TOO_LARGE);
+        assert!(p.errors[0].message.contains("under 4 GiB"));
+        assert_eq!(crate::format::format(&p), src);
+        // A text under the limit is read.
+        assert!(parse(src).errors.is_empty());
+    }
+
+    /// The tree's per-value and per-line sizes (a 5 MB file holds about a
+    /// million values): a field added or widened shows here.
+    #[test]
+    fn tree_nodes_stay_small() {
+        use std::mem::size_of;
+        assert_eq!(size_of::<Span>(), 8);
+        assert!(size_of::<Value>() <= 40, "Value {}", size_of::<Value>());
+        assert!(size_of::<Line>() <= 64, "Line {}", size_of::<Line>());
+    }
 }

@@ -81,8 +81,8 @@ pub enum ValueKind {
         value: f64,
         /// True when written with a leading `+` or `-`.
         signed: bool,
-        /// Digits written after the decimal point (the written precision).
-        decimals: u32,
+        /// Digits written after the decimal point (the written precision; 255 at most).
+        decimals: u8,
         /// The unit as written, if any.
         unit: Option<Span>,
     },
@@ -161,7 +161,7 @@ pub struct Line {
     /// The line without its line break.
     pub span: Span,
     /// Width in bytes of the leading spaces and tabs.
-    pub indent: usize,
+    pub indent: u32,
     /// What the line holds.
     #[serde(flatten)]
     pub kind: LineKind,
@@ -246,7 +246,7 @@ pub struct Parsed {
 impl Parsed {
     /// The source text under `span`.
     pub fn text(&self, span: Span) -> &str {
-        &self.source[span.start..span.end]
+        &self.source[span.start()..span.end()]
     }
 
     /// The keyword text of a statement.

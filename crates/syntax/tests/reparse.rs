@@ -155,7 +155,7 @@ fn a_bad_block_costs_only_its_bad_line() {
                system \"s\"\n  lens L1 +5 D\n";
     let p = parse(src);
     assert_eq!(p.errors.len(), 1, "{:?}", p.errors);
-    assert_eq!(p.index.line_col(src, p.errors[0].span.start).0, 4);
+    assert_eq!(p.index.line_col(src, p.errors[0].span.start()).0, 4);
     assert_eq!(p.blocks.len(), 3);
     assert_same(&p, &reparse(&parse(""), 0..0, src));
 }

@@ -29,7 +29,7 @@ fn one_bad_line_costs_one_error() {
         .map(|e| {
             (
                 e.code,
-                p.index.line_col(&p.source, e.span.start),
+                p.index.line_col(&p.source, e.span.start()),
                 e.message.clone(),
             )
         })

@@ -28,7 +28,7 @@ pub fn diagnostics(name: &str, parsed: &Parsed, diags: &[Diagnostic]) -> String 
 /// ```
 pub fn diagnostic(out: &mut String, name: &str, parsed: &Parsed, d: &Diagnostic) {
     let src = &parsed.source;
-    let (line, col) = parsed.index.line_col(src, d.span.start);
+    let (line, col) = parsed.index.line_col(src, d.span.start());
     let _ = writeln!(
         out,
         "{name}:{line}:{col}: {} {}: {}",
@@ -37,15 +37,15 @@ pub fn diagnostic(out: &mut String, name: &str, parsed: &Parsed, d: &Diagnostic)
         d.message
     );
     let line_span = parsed.index.line_span(src, line - 1);
-    let text = &src[line_span.start..line_span.end];
+    let text = &src[line_span.start()..line_span.end()];
     let gutter = line.to_string().len().max(3);
     let _ = writeln!(out, " {line:>gutter$} | {text}");
-    let end = d.span.end.min(line_span.end).max(d.span.start);
-    let width = src[d.span.start.min(src.len())..end.min(src.len())]
+    let end = d.span.end().min(line_span.end()).max(d.span.start());
+    let width = src[d.span.start().min(src.len())..end.min(src.len())]
         .chars()
         .count()
         .max(1);
-    let lead: String = src[line_span.start..d.span.start.min(line_span.end)]
+    let lead: String = src[line_span.start()..d.span.start().min(line_span.end())]
         .chars()
         .map(|c| if c == '\t' { '\t' } else { ' ' })
         .collect();
@@ -96,7 +96,7 @@ pub fn derived_table(parsed: &Parsed, derived: &[Derived], explain: bool) -> Str
             if current_block.is_some() {
                 out.push('\n');
             }
-            let (line, _) = parsed.index.line_col(&parsed.source, d.span.start);
+            let (line, _) = parsed.index.line_col(&parsed.source, d.span.start());
             let header = parsed
                 .blocks
                 .iter()
@@ -111,7 +111,7 @@ pub fn derived_table(parsed: &Parsed, derived: &[Derived], explain: bool) -> Str
             let _ = writeln!(out, "{header}    [{block}, from line {line}]");
             current_block = Some(block);
         }
-        let (line, _) = parsed.index.line_col(&parsed.source, d.span.start);
+        let (line, _) = parsed.index.line_col(&parsed.source, d.span.start());
         let _ = writeln!(
             out,
             "  {:<name_w$}  {:<text_w$}  {} (line {line})",

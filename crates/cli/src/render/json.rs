@@ -5,8 +5,8 @@ use parax_syntax::{Parsed, Span};
 use serde_json::{json, Value};
 
 fn range(parsed: &Parsed, span: Span) -> Value {
-    let (l1, c1) = parsed.index.line_col(&parsed.source, span.start);
-    let (l2, c2) = parsed.index.line_col(&parsed.source, span.end);
+    let (l1, c1) = parsed.index.line_col(&parsed.source, span.start());
+    let (l2, c2) = parsed.index.line_col(&parsed.source, span.end());
     json!({ "line": l1, "column": c1, "end_line": l2, "end_column": c2 })
 }
 

@@ -97,8 +97,8 @@ pub fn results(location: &Value, parsed: &Parsed, diags: &[Diagnostic]) -> Vec<V
     diags
         .iter()
         .map(|d| {
-            let (l1, c1) = parsed.index.line_col(src, d.span.start);
-            let (mut l2, mut c2) = parsed.index.line_col(src, d.span.end);
+            let (l1, c1) = parsed.index.line_col(src, d.span.start());
+            let (mut l2, mut c2) = parsed.index.line_col(src, d.span.end());
             if (l2, c2) <= (l1, c1) {
                 (l2, c2) = (l1, c1 + 1);
             }
@@ -108,7 +108,7 @@ pub fn results(location: &Value, parsed: &Parsed, diags: &[Diagnostic]) -> Vec<V
             let base = fnv1a(&format!(
                 "{}\u{0}{uri}\u{0}{}",
                 d.code,
-                src[line.start..line.end].trim()
+                src[line.start()..line.end()].trim()
             ));
             let n = seen.entry(base).or_default();
             *n += 1;
@@ -138,7 +138,7 @@ pub fn results(location: &Value, parsed: &Parsed, diags: &[Diagnostic]) -> Vec<V
                         "region": {
                             "startLine": l1, "startColumn": c1,
                             "endLine": l2, "endColumn": c2,
-                            "snippet": { "text": &src[line.start..line.end] },
+                            "snippet": { "text": &src[line.start()..line.end()] },
                         },
                     },
                 }],

@@ -15,7 +15,7 @@ pub use visits::Visits;
 
 use crate::derived::{Derivation, Derived, DerivedValue, Source};
 use crate::diagnostic::Diagnostic;
-use crate::model::{Case, Eye, Frame, Side};
+use crate::model::{Case, Expect, Eye, Frame, Side};
 use parax_optics::refraction::SphCyl;
 use parax_syntax::Span;
 use std::borrow::Cow;
@@ -29,11 +29,7 @@ pub fn compute(
     derived: &mut Vec<Derived>,
     diags: &mut Vec<Diagnostic>,
 ) {
-    let visits = Visits::new(case);
-    for e in &case.eyes {
-        eye_values(case, &visits, e, derivations, derived, diags);
-    }
-    other_values(case, derivations, derived, diags);
+    compute_each(case, derivations, derived, diags, &mut |_, _, _, _| {});
 }
 
 /// The values of one eye block. Besides the block itself they depend on the
@@ -57,12 +53,24 @@ fn eye_values(
     derived: &mut Vec<Derived>,
     diags: &mut Vec<Diagnostic>,
 ) {
-    let mut out = Out::new(eye::block_id(e), derivations, derived);
-    eye::compute(case, e, &mut out, diags);
-    eye_axial::compute(case, e, &mut out);
-    near::compute(case, e, &mut out);
-    iol::compute(e, &mut out, diags);
-    visits::compute(case, visits, e, &mut out, diags);
+    let mut out = Out::new(eye::block_id(e).into(), derivations, derived);
+    eye_block(case, visits, e, &mut out, diags);
+}
+
+/// Every computation of one eye block, in order. The one list of them: full,
+/// block-by-block and incremental evaluation all come here.
+fn eye_block(
+    case: &Case,
+    visits: &Visits<'_>,
+    e: &Eye,
+    out: &mut Out<'_>,
+    diags: &mut Vec<Diagnostic>,
+) {
+    eye::compute(case, e, out, diags);
+    eye_axial::compute(case, e, out);
+    near::compute(case, e, out);
+    iol::compute(e, out, diags);
+    visits::compute(case, visits, e, out, diags);
 }
 
 /// The values of every block other than the eye blocks, in the order of
@@ -77,45 +85,112 @@ fn other_values(
     derived: &mut Vec<Derived>,
     diags: &mut Vec<Diagnostic>,
 ) {
+    others_each(case, derivations, derived, diags, &mut |_, _, _, _| {});
+}
+
+/// What [`compute_each`] calls after each block: the block id, the block's
+/// `expect` lines, the buffer and the index where the block's values start in it.
+pub(crate) type BlockDone<'a> = dyn FnMut(&str, &[Expect], &mut Vec<Derived>, usize) + 'a;
+
+/// [`compute`] one block at a time: the values of each block are pushed onto
+/// `buf`, then `done` is called with the block's id, its `expect` lines and the
+/// index where its values start (it may drain them). Blocks come in the order of
+/// [`compute`]: eyes, systems, spectacle lenses, frames, contact lenses, model eyes.
+pub(crate) fn compute_each(
+    case: &Case,
+    derivations: bool,
+    buf: &mut Vec<Derived>,
+    diags: &mut Vec<Diagnostic>,
+    done: &mut BlockDone<'_>,
+) {
+    let visits = Visits::new(case);
+    for e in &case.eyes {
+        let id: Arc<str> = eye::block_id(e).into();
+        let start = buf.len();
+        let mut out = Out::new(Arc::clone(&id), derivations, buf);
+        eye_block(case, &visits, e, &mut out, diags);
+        done(&id, &e.expects, buf, start);
+    }
+    others_each(case, derivations, buf, diags, done);
+}
+
+/// The blocks other than eye blocks, one at a time, as [`compute_each`] does.
+fn others_each(
+    case: &Case,
+    derivations: bool,
+    buf: &mut Vec<Derived>,
+    diags: &mut Vec<Diagnostic>,
+    done: &mut BlockDone<'_>,
+) {
     for s in &case.systems {
-        system::compute(
-            s,
-            &mut Out::new(system::block_id(s), derivations, derived),
-            diags,
-        );
+        let id: Arc<str> = system::block_id(s).into();
+        let start = buf.len();
+        system::compute(s, &mut Out::new(Arc::clone(&id), derivations, buf), diags);
+        done(&id, &s.expects, buf, start);
     }
     for l in &case.spectacle_lenses {
+        let id: Arc<str> = spectacle::block_id(l).into();
+        let start = buf.len();
         spectacle::compute(
             case,
             l,
-            &mut Out::new(spectacle::block_id(l), derivations, derived),
+            &mut Out::new(Arc::clone(&id), derivations, buf),
             diags,
         );
+        done(&id, &l.expects, buf, start);
     }
     for f in &case.frames {
+        let id: Arc<str> = spectacle::frame_id(f).into();
+        let start = buf.len();
         spectacle::compute_frame(
             case,
             f,
-            &mut Out::new(spectacle::frame_id(f), derivations, derived),
+            &mut Out::new(Arc::clone(&id), derivations, buf),
             diags,
         );
+        done(&id, &f.expects, buf, start);
     }
     for c in &case.contact_lenses {
+        let id: Arc<str> = contact::block_id(c).into();
+        let start = buf.len();
         contact::compute(
             case,
             c,
-            &mut Out::new(contact::block_id(c), derivations, derived),
+            &mut Out::new(Arc::clone(&id), derivations, buf),
             diags,
         );
+        done(&id, &c.expects, buf, start);
     }
     for m in &case.model_eyes {
+        let id: Arc<str> = model_eye::block_id(m).into();
+        let start = buf.len();
         model_eye::compute(
             case,
             m,
-            &mut Out::new(model_eye::block_id(m), derivations, derived),
+            &mut Out::new(Arc::clone(&id), derivations, buf),
             diags,
         );
+        done(&id, &m.expects, buf, start);
     }
+}
+
+/// The id of every block that has values, in the order of [`compute`].
+pub(crate) fn block_ids(case: &Case) -> Vec<String> {
+    let mut ids = Vec::with_capacity(
+        case.eyes.len()
+            + case.systems.len()
+            + case.spectacle_lenses.len()
+            + case.frames.len()
+            + case.contact_lenses.len()
+            + case.model_eyes.len(),
+    );
+    ids.extend(case.eyes.iter().map(eye::block_id));
+    ids.extend(case.systems.iter().map(system::block_id));
+    ids.extend(case.spectacle_lenses.iter().map(spectacle::block_id));
+    ids.extend(case.frames.iter().map(spectacle::frame_id));
+    ids.extend(case.contact_lenses.iter().map(contact::block_id));
+    ids.extend(case.model_eyes.iter().map(model_eye::block_id));
+    ids
 }
 
 /// The eye block a lens of `side` is fitted to: the undated block if there is one,
@@ -157,9 +232,9 @@ pub(crate) struct Out<'a> {
 }
 
 impl<'a> Out<'a> {
-    fn new(block: String, derivations: bool, derived: &'a mut Vec<Derived>) -> Self {
+    fn new(block: Arc<str>, derivations: bool, derived: &'a mut Vec<Derived>) -> Self {
         Out {
-            block: block.into(),
+            block,
             derivations,
             derived,
         }
@@ -182,7 +257,7 @@ impl<'a> Out<'a> {
         span: Span,
         formula: &'static str,
         substituted: impl FnOnce() -> String,
-        source: Source,
+        source: &'static Source,
     ) -> &mut Derived {
         let substituted = if self.derivations {
             substituted()

@@ -48,7 +48,7 @@ pub struct ValueView {
 pub fn pest_lines(source: &str) -> Vec<Option<LineView>> {
     use parax_syntax::{LineKind, ValueKind};
     let parsed = parax_syntax::parse(source);
-    let span = |s: parax_syntax::Span| (s.start, s.end);
+    let span = |s: parax_syntax::Span| (s.start(), s.end());
     parsed
         .lines
         .iter()
@@ -85,7 +85,7 @@ pub fn pest_lines(source: &str) -> Vec<Option<LineView>> {
                     comment,
                 }),
                 LineKind::Statement { statement } => Some(LineView::Statement {
-                    indent: line.indent,
+                    indent: line.indent as usize,
                     keyword: span(statement.keyword),
                     values: values(statement),
                     comment,

@@ -1,0 +1,161 @@
+//! `evaluate_each` (values handed to a callback block by block, as `parax check`
+//! uses it) must give exactly the diagnostics and case of `evaluate_with`, and
+//! hand over exactly its values in the same order; checked on every example and
+//! fixture, on files whose blocks share an id, and after random edits.
+
+use parax_eval::{evaluate_each, evaluate_with, Derived, EvalOptions};
+use parax_syntax::parse;
+use proptest::prelude::*;
+use std::path::Path;
+
+fn files() -> Vec<String> {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("../..");
+    let mut out = vec![
+        // Invented data: two blocks with the same id (undated right eye twice).
+        "case \"dup\"\n  age 40\n\neye right\n  refraction -1.00 / -0.50 x 90\n  expect spherical-equivalent -1.25 D\n\neye left\n  refraction +1.00\n\neye right\n  refraction -2.00\n  expect spherical-equivalent -2.00 D\n".to_owned(),
+    ];
+    for dir in [
+        "examples",
+        "tests/fixtures/parse/valid",
+        "tests/fixtures/parse/invalid",
+    ] {
+        let mut paths: Vec<_> = std::fs::read_dir(root.join(dir))
+            .expect("fixture dir")
+            .map(|e| e.expect("entry").path())
+            .filter(|p| p.extension().is_some_and(|x| x == "parax"))
+            .collect();
+        paths.sort();
+        for p in paths {
+            out.push(std::fs::read_to_string(p).expect("fixture"));
+        }
+    }
+    out
+}
+
+/// Key, text, span and substituted formula of each value.
+fn summary(values: &[Derived]) -> Vec<(String, String, (u32, u32), String)> {
+    values
+        .iter()
+        .map(|d| {
+            (
+                d.key(),
+                d.text(),
+                (d.span.start, d.span.end),
+                d.derivation.substituted.clone(),
+            )
+        })
+        .collect()
+}
+
+/// Compare `evaluate_each` with `evaluate_with` on `text`, both option sets;
+/// returns how many times the callback was called.
+fn same(text: &str) -> Result<usize, TestCaseError> {
+    let parsed = parse(text);
+    let mut calls = 0;
+    for options in [EvalOptions::default(), EvalOptions::VALUES_ONLY] {
+        let full = evaluate_with(&parsed, options);
+        let mut seen = Vec::new();
+        calls = 0;
+        let each = evaluate_each(&parsed, options, &mut |v| {
+            calls += 1;
+            seen.extend_from_slice(v)
+        });
+        prop_assert!(each.derived.is_empty(), "values are handed over, not kept");
+        prop_assert_eq!(
+            summary(&seen),
+            summary(&full.derived),
+            "values of {:?}",
+            text
+        );
+        prop_assert_eq!(
+            &each.diagnostics,
+            &full.diagnostics,
+            "diagnostics of {:?}",
+            text
+        );
+        prop_assert_eq!(&each.case, &full.case);
+    }
+    Ok(calls)
+}
+
+#[test]
+fn every_example_and_fixture_gives_the_same_result() {
+    for f in files() {
+        same(&f).unwrap();
+    }
+}
+
+#[test]
+fn values_come_one_block_at_a_time_unless_ids_repeat() {
+    let files = files();
+    // The duplicate-id file: one call with every value.
+    assert_eq!(same(&files[0]).unwrap(), 1);
+    // The dispensing example: one call per block that has an id.
+    let text = std::fs::read_to_string(
+        Path::new(env!("CARGO_MANIFEST_DIR")).join("../../examples/dispensing.parax"),
+    )
+    .expect("example");
+    let ev = evaluate_with(&parse(&text), EvalOptions::default());
+    let blocks = ev.case.eyes.len()
+        + ev.case.systems.len()
+        + ev.case.spectacle_lenses.len()
+        + ev.case.frames.len()
+        + ev.case.contact_lenses.len()
+        + ev.case.model_eyes.len();
+    assert!(blocks > 2);
+    assert_eq!(same(&text).unwrap(), blocks);
+}
+
+const PIECES: &[&str] = &[
+    "",
+    "\n",
+    "  ",
+    "1",
+    "-",
+    ".",
+    " D",
+    "x",
+    "eye right\n  refraction -2.00 / -1.00 x 90\n  expect spherical-equivalent -2.50 D\n",
+    "eye left 2026-01-02\n  refraction +1.00\n",
+    "  expect spherical-equivalent -1.75 D\n",
+    "frame\n  vertex 10 mm\n",
+    "  expect nothing-such 1\n",
+];
+
+fn floor(s: &str, mut at: usize) -> usize {
+    at = at.min(s.len());
+    while !s.is_char_boundary(at) {
+        at -= 1;
+    }
+    at
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(128))]
+    #[test]
+    fn each_equals_full_after_edits(
+        file in any::<prop::sample::Index>(),
+        edits in prop::collection::vec(
+            (any::<prop::sample::Index>(), 0usize..30, prop::collection::vec(0..PIECES.len(), 0..3)),
+            1..4,
+        ),
+    ) {
+        let files = files();
+        let mut text = files[file.index(files.len())].clone();
+        for (at, len, pieces) in edits {
+            let start = floor(&text, at.index(text.len() + 1));
+            let end = floor(&text, start + len);
+            let insert: String = pieces.iter().map(|&i| PIECES[i]).collect();
+            text.replace_range(start..end, &insert);
+        }
+        same(&text)?;
+    }
+}
+
+/// A value's own size (a 5 MB file derives about 530,000 of them): a field
+/// added or widened shows here. The source is a shared reference (8 bytes).
+#[test]
+fn a_derived_value_stays_small() {
+    let size = std::mem::size_of::<Derived>();
+    assert!(size <= 176, "Derived is {size} bytes");
+}
