@@ -630,7 +630,10 @@ fn evaluate_with(
 /// partner and previous visit; their values are written over the old ones, and
 /// the results of the eyes after the edit are moved by `delta` bytes. Returns
 /// false, having changed nothing, when a recomputed eye has a different number
-/// of values than before (then the general path runs).
+/// of values than before (then the general path runs). `explain` writes the
+/// substituted formulas ([`EvalOptions::derivations`]).
+// Eight inputs, all of the one call site's state: a struct would only rename them.
+#[allow(clippy::too_many_arguments)]
 fn in_place(
     case: &Case,
     blocks: &[parax_syntax::Block],
