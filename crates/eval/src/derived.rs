@@ -165,6 +165,17 @@ impl Serialize for Derived {
 /// Format a power like the trade writes it: sign always, two decimals.
 pub fn fmt_power(d: f64) -> String {
     let d = if d.abs() < 0.005 { 0.0 } else { d };
+    // Quarter steps (most clinical powers) are exact in binary, so their two
+    // decimals are exact and written from an integer: the standard library's
+    // exact float formatting falls back to its slow bignum path on exactly
+    // such values, and hints and hovers format many of them per edit. Equal
+    // to `{:+.2}` (a property test in tests/fmt_power.rs checks it).
+    let quarters = d * 4.0; // exact: a power of two
+    if quarters == quarters.trunc() && quarters.abs() < 1e15 {
+        let hundredths = (quarters as i64).abs() * 25;
+        let sign = if d < 0.0 { '-' } else { '+' };
+        return format!("{sign}{}.{:02}", hundredths / 100, hundredths % 100);
+    }
     format!("{d:+.2}")
 }
 

@@ -32,7 +32,7 @@ use crate::compute::{self, Visits};
 use crate::derived::Derived;
 use crate::diagnostic::Diagnostic;
 use crate::model::{At, Case, Expect, ExpectToken, Eye};
-use crate::{expect, from_syntax, lower, Evaluation};
+use crate::{expect, from_syntax, lower, EvalOptions, Evaluation};
 use parax_syntax::{BlockKind, Parsed, Span};
 use std::collections::HashMap;
 use std::ops::Range;
@@ -75,6 +75,9 @@ struct EyeMemo {
 pub(crate) struct Memo {
     /// False for an evaluation made by [`crate::evaluate`] (nothing kept).
     kept: bool,
+    /// True when the values were computed without their substituted formulas
+    /// ([`EvalOptions::VALUES_ONLY`]); [`explained`] writes them on demand.
+    values_only: bool,
     /// Length of the text evaluated.
     len: usize,
     /// Texts of every block that is not an eye block, joined.
@@ -89,6 +92,16 @@ pub(crate) struct Memo {
     /// blocks' values and those of eyes whose values point elsewhere), ordered
     /// by (start, index).
     loose: Vec<usize>,
+}
+
+impl Memo {
+    /// The memo of a full evaluation with `options`: nothing kept.
+    pub(crate) fn full(options: EvalOptions) -> Memo {
+        Memo {
+            values_only: !options.derivations,
+            ..Memo::default()
+        }
+    }
 }
 
 fn shift_diag(d: &mut Diagnostic, by: isize) {
@@ -188,7 +201,20 @@ fn move_eye(e: &mut Eye, by: isize) {
 /// version of the same document, made by this function) read and computed for
 /// the blocks that did not change. Gives exactly what [`crate::evaluate`] gives.
 pub fn evaluate_incremental(parsed: &Parsed, previous: Option<Evaluation>) -> Evaluation {
-    evaluate_with(parsed, previous, None)
+    evaluate_with(parsed, previous, None, EvalOptions::default())
+}
+
+/// [`evaluate_incremental`] with `options`. A `previous` evaluation made with
+/// other options is not reused. With [`EvalOptions::VALUES_ONLY`] (what the
+/// language server runs on every edit) no substituted formula is written;
+/// [`Evaluation::explained`] writes those of the values asked for. Gives
+/// exactly what [`crate::evaluate_with`] gives with the same options.
+pub fn evaluate_incremental_with(
+    parsed: &Parsed,
+    previous: Option<Evaluation>,
+    options: EvalOptions,
+) -> Evaluation {
+    evaluate_with(parsed, previous, None, options)
 }
 
 /// [`evaluate_incremental`] when the edit is known: the bytes `edit` of the
@@ -201,21 +227,39 @@ pub fn evaluate_edit(
     edit: Range<usize>,
     inserted: usize,
 ) -> Evaluation {
-    evaluate_with(parsed, previous, Some((edit, inserted)))
+    evaluate_with(
+        parsed,
+        previous,
+        Some((edit, inserted)),
+        EvalOptions::default(),
+    )
+}
+
+/// [`evaluate_edit`] with `options` (see [`evaluate_incremental_with`]).
+pub fn evaluate_edit_with(
+    parsed: &Parsed,
+    previous: Option<Evaluation>,
+    edit: Range<usize>,
+    inserted: usize,
+    options: EvalOptions,
+) -> Evaluation {
+    evaluate_with(parsed, previous, Some((edit, inserted)), options)
 }
 
 fn evaluate_with(
     parsed: &Parsed,
     previous: Option<Evaluation>,
     edit: Option<(Range<usize>, usize)>,
+    options: EvalOptions,
 ) -> Evaluation {
+    let explain = options.derivations;
     let mut context = String::new();
     for b in parsed.blocks.iter().filter(|b| b.kind != BlockKind::Eye) {
         context.push_str(parsed.text(b.span));
         context.push('\0');
     }
     let (old_eyes, old_derived, memo) = match previous {
-        Some(p) if p.memo.kept => (p.case.eyes, p.derived, p.memo),
+        Some(p) if p.memo.kept && p.memo.values_only != explain => (p.case.eyes, p.derived, p.memo),
         _ => Default::default(),
     };
     let Memo {
@@ -357,7 +401,7 @@ fn evaluate_with(
         duplicate |= *n > 1;
     }
     if duplicate {
-        return crate::evaluate(parsed);
+        return crate::evaluate_with(parsed, options);
     }
 
     // Which block each eye came from.
@@ -410,6 +454,7 @@ fn evaluate_with(
             delta,
             &mut derived,
             &mut old_eye_memos,
+            explain,
         );
     let (mut derived, eyes) = if done {
         let end = old_eye_memos.last().map_or(0, |m| m.derived.end);
@@ -508,7 +553,7 @@ fn evaluate_with(
                             &local
                         }
                     };
-                    compute::compute_eye(&case, visits, e, &mut fresh_values, &mut diags);
+                    compute::compute_eye(&case, visits, e, explain, &mut fresh_values, &mut diags);
                     let mut expects = Vec::new();
                     let id = compute::eye_block_id(e);
                     expect::check(&id, &e.expects, &fresh_values[start..], &mut expects);
@@ -546,7 +591,7 @@ fn evaluate_with(
         diagnostics.extend(m.diags.iter().cloned());
     }
     let others = derived.len();
-    compute::compute_others(&case, &mut derived, &mut diagnostics);
+    compute::compute_others(&case, explain, &mut derived, &mut diagnostics);
     for m in &eyes {
         diagnostics.extend(m.expects.iter().cloned());
     }
@@ -566,6 +611,7 @@ fn evaluate_with(
         diagnostics,
         memo: Memo {
             kept: true,
+            values_only: !explain,
             len: parsed.source.len(),
             context,
             blocks,
@@ -584,7 +630,10 @@ fn evaluate_with(
 /// partner and previous visit; their values are written over the old ones, and
 /// the results of the eyes after the edit are moved by `delta` bytes. Returns
 /// false, having changed nothing, when a recomputed eye has a different number
-/// of values than before (then the general path runs).
+/// of values than before (then the general path runs). `explain` writes the
+/// substituted formulas ([`EvalOptions::derivations`]).
+// Eight inputs, all of the one call site's state: a struct would only rename them.
+#[allow(clippy::too_many_arguments)]
 fn in_place(
     case: &Case,
     blocks: &[parax_syntax::Block],
@@ -593,6 +642,7 @@ fn in_place(
     delta: isize,
     derived: &mut [Derived],
     memos: &mut [EyeMemo],
+    explain: bool,
 ) -> bool {
     if memos.len() != case.eyes.len() {
         return false;
@@ -618,7 +668,7 @@ fn in_place(
         let visits = Visits::of(case, these);
         let mut values = Vec::with_capacity(m.derived.len());
         let mut diags = Vec::new();
-        compute::compute_eye(case, &visits, e, &mut values, &mut diags);
+        compute::compute_eye(case, &visits, e, explain, &mut values, &mut diags);
         if values.len() != m.derived.len() {
             return false;
         }
@@ -678,5 +728,52 @@ pub(crate) fn values_starting_in(e: &Evaluation, span: Span) -> Vec<usize> {
         (0..e.derived.len()).filter(starts_in).collect()
     };
     out.sort_by_key(|&i| (e.derived[i].span.start, i));
+    out
+}
+
+/// See [`Evaluation::explained`]. After an incremental evaluation, an eye's
+/// values are computed again from its lowered eye, its partner and its previous
+/// visit (the inputs the memo records, as [`in_place`] does), and the other
+/// blocks' values from the case; each block at most once per call.
+pub(crate) fn explained(e: &Evaluation, indices: &[usize]) -> Vec<Derived> {
+    if !e.memo.values_only {
+        return indices.iter().map(|&i| e.derived[i].clone()).collect();
+    }
+    if !e.memo.kept {
+        // A full evaluation without derivations keeps no per-block inputs:
+        // everything is computed again (not a path the language server takes).
+        let (all, _) = crate::evaluate_case_with(&e.case, EvalOptions::default());
+        return indices.iter().map(|&i| all[i].clone()).collect();
+    }
+    let m = &e.memo;
+    let others = m.eyes.last().map_or(0, |x| x.derived.end);
+    // Computed blocks: `Some(eye)` or `None` for the other blocks.
+    let mut done: HashMap<Option<usize>, Vec<Derived>> = HashMap::new();
+    let mut out = Vec::with_capacity(indices.len());
+    for &i in indices {
+        let unit = (i < others).then(|| m.eyes.partition_point(|x| x.derived.end <= i));
+        let values = done.entry(unit).or_insert_with(|| {
+            let mut values = Vec::new();
+            let mut diags = Vec::new();
+            match unit {
+                Some(k) => {
+                    let em = &m.eyes[k];
+                    let mut these: Vec<usize> = [Some(k), em.partner, em.previous]
+                        .into_iter()
+                        .flatten()
+                        .collect();
+                    these.sort_unstable();
+                    these.dedup();
+                    let visits = Visits::of(&e.case, these);
+                    let eye = &e.case.eyes[k];
+                    compute::compute_eye(&e.case, &visits, eye, true, &mut values, &mut diags);
+                }
+                None => compute::compute_others(&e.case, true, &mut values, &mut diags),
+            }
+            values
+        });
+        let base = unit.map_or(others, |k| m.eyes[k].derived.start);
+        out.push(values[i - base].clone());
+    }
     out
 }

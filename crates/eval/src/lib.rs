@@ -20,7 +20,9 @@ pub mod units;
 pub use compute::slug;
 pub use derived::{Derived, DerivedValue, Difference};
 pub use diagnostic::{Diagnostic, Edit, Fix, Severity, GENERAL_CAUTION};
-pub use incremental::{evaluate_edit, evaluate_incremental};
+pub use incremental::{
+    evaluate_edit, evaluate_edit_with, evaluate_incremental, evaluate_incremental_with,
+};
 
 pub use model::Case;
 
@@ -55,6 +57,16 @@ impl Evaluation {
     /// every value.
     pub fn values_starting_in(&self, span: parax_syntax::Span) -> Vec<usize> {
         incremental::values_starting_in(self, span)
+    }
+
+    /// The values at `indices` of [`Evaluation::derived`], each with its
+    /// substituted formula written, whatever options the evaluation ran with.
+    /// After an incremental evaluation with [`EvalOptions::VALUES_ONLY`] (the
+    /// language server's) only the blocks holding those values are computed
+    /// again, with derivations on; otherwise the stored values are cloned.
+    /// Each result equals the value at the same index of [`evaluate`].
+    pub fn explained(&self, indices: &[usize]) -> Vec<Derived> {
+        incremental::explained(self, indices)
     }
 }
 
@@ -94,7 +106,7 @@ pub fn evaluate_with(parsed: &Parsed, options: EvalOptions) -> Evaluation {
         case,
         derived,
         diagnostics,
-        memo: Default::default(),
+        memo: incremental::Memo::full(options),
     }
 }
 

@@ -3,9 +3,15 @@
 //! `evaluate` gives: the same case model, derived values (key, text, span) and
 //! diagnostics, after random edits of the example and fixture files and of a
 //! long history of visits; and `values_starting_in` must find what a scan of
-//! every value finds.
+//! every value finds. An evaluation with `EvalOptions::VALUES_ONLY` (no
+//! substituted formulas, as the language server runs) gives the same values
+//! and diagnostics, and `Evaluation::explained` writes for any value exactly the
+//! derivation `evaluate` writes.
 
-use parax_eval::{evaluate, evaluate_edit, evaluate_incremental, Evaluation};
+use parax_eval::{
+    evaluate, evaluate_edit, evaluate_edit_with, evaluate_incremental, evaluate_with, EvalOptions,
+    Evaluation,
+};
 use parax_syntax::Span;
 use parax_syntax::{parse, reparse};
 use proptest::prelude::*;
@@ -106,6 +112,8 @@ proptest! {
         let mut eval = evaluate_incremental(&parsed, None);
         // The same edits told to the evaluator (blocks found by position).
         let mut told = eval.clone();
+        // Values only, derivations written on demand.
+        let mut quiet = parax_eval::evaluate_incremental_with(&parsed, None, EvalOptions::VALUES_ONLY);
         for (at, len, pieces) in edits {
             let start = floor(&text, at.index(text.len() + 1));
             let end = floor(&text, start + len);
@@ -114,8 +122,16 @@ proptest! {
             text.replace_range(start..end, &insert);
             eval = evaluate_incremental(&parsed, Some(eval));
             told = evaluate_edit(&parsed, Some(told), start..end, insert.len());
+            quiet = evaluate_edit_with(&parsed, Some(quiet), start..end, insert.len(), EvalOptions::VALUES_ONLY);
             let full = evaluate(&parse(&text));
-            for e in [&eval, &told] {
+            prop_assert!(quiet.derived.iter().all(|d| d.derivation.substituted.is_empty()));
+            // Asked for in two halves (a block may be computed once per call).
+            let all: Vec<usize> = (0..full.derived.len()).collect();
+            let (a, b) = all.split_at(all.len() / 2);
+            let mut explained = quiet.explained(b);
+            explained.splice(0..0, quiet.explained(a));
+            prop_assert_eq!(&explained, &full.derived, "derivations of {:?}", text);
+            for e in [&eval, &told, &quiet] {
                 prop_assert_eq!(summary(e), summary(&full), "values of {:?}", text);
                 prop_assert_eq!(&e.diagnostics, &full.diagnostics, "diagnostics of {:?}", text);
                 prop_assert_eq!(&e.case, &full.case);
@@ -149,4 +165,20 @@ fn an_edit_in_one_visit_reuses_the_others_and_moves_their_spans() {
     assert_eq!(summary(&again), summary(&full));
     assert_eq!(again.diagnostics, full.diagnostics);
     assert_ne!(summary(&again), summary(&first), "spans moved by one byte");
+}
+
+#[test]
+fn a_full_evaluation_without_derivations_explains_on_demand() {
+    let parsed = parse(&visits());
+    let full = evaluate(&parsed);
+    let quiet = evaluate_with(&parsed, EvalOptions::VALUES_ONLY);
+    assert_eq!(summary(&quiet), summary(&full));
+    assert!(full
+        .derived
+        .iter()
+        .all(|d| !d.derivation.substituted.is_empty()));
+    let picked = [full.derived.len() - 1, 0, 5];
+    let expected: Vec<_> = picked.iter().map(|&i| full.derived[i].clone()).collect();
+    assert_eq!(quiet.explained(&picked), expected);
+    assert_eq!(full.explained(&picked), expected);
 }

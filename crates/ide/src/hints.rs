@@ -12,7 +12,8 @@ pub struct InlayHint {
     pub offset: usize,
     /// The compact text, e.g. `corneal plane -5.38 / -1.29 x 175 · SE -6.50 D`.
     pub label: String,
-    /// Longer text: each value with its label and source.
+    /// Longer text: each value with its label and source (empty from
+    /// [`inlay_hints_without_tooltips`]).
     pub tooltip: String,
 }
 
@@ -32,6 +33,17 @@ const PREFERRED: &[(&str, &str)] = &[
 
 /// Hints for every statement line that meets `range` (the whole file when `None`).
 pub fn inlay_hints(a: &Analysis, range: Option<Span>) -> Vec<InlayHint> {
+    hints(a, range, true)
+}
+
+/// [`inlay_hints`] with every tooltip left empty, for a client that asks for
+/// a hint's tooltip only when it shows it: the tooltip formats every value of
+/// the line (the label only two), so it was most of the cost of an answer.
+pub fn inlay_hints_without_tooltips(a: &Analysis, range: Option<Span>) -> Vec<InlayHint> {
+    hints(a, range, false)
+}
+
+fn hints(a: &Analysis, range: Option<Span>, tooltips: bool) -> Vec<InlayHint> {
     let mut out = Vec::new();
     // Only the lines of the range are visited (found by the line index), so a
     // screenful costs the same in a short file and a long one.
@@ -82,7 +94,7 @@ pub fn inlay_hints(a: &Analysis, range: Option<Span>) -> Vec<InlayHint> {
         }
         // One string written in place (no string per value, then a join).
         let mut tooltip = String::new();
-        for (k, d) in here.iter().enumerate() {
+        for (k, d) in here.iter().enumerate().filter(|_| tooltips) {
             if k > 0 {
                 tooltip.push('\n');
             }

@@ -62,19 +62,26 @@ pub fn hover(a: &Analysis, offset: usize) -> Option<Hover> {
     if keyword == "expect" {
         if let Some(name_v) = statement.values.first() {
             let name = a.parsed.text(name_v.span);
-            let block = a.block_around(line_i).map(|b| b.span);
-            if let Some(d) = a.evaluation.derived.iter().find(|d| {
-                d.name == name
-                    && block.is_some_and(|b| b.start <= d.span.start && d.span.end <= b.end)
-            }) {
-                md.push_str(&derivation_md(d));
+            // The first value (in evaluation order) of that name inside the block.
+            let derived = &a.evaluation.derived;
+            let found = a.block_around(line_i).and_then(|b| {
+                a.evaluation
+                    .values_starting_in(b.span)
+                    .into_iter()
+                    .filter(|&i| derived[i].name == name && derived[i].span.end <= b.span.end)
+                    .min()
+            });
+            if let Some(i) = found {
+                for d in a.explained(&[i]) {
+                    md.push_str(&derivation_md(&d));
+                }
             }
         }
     }
 
-    let derived: Vec<_> = a.derived_on_line(line).collect();
+    let on_line = a.evaluation.values_starting_in(line.span);
     if !statement.keyword.touches(offset) || md.is_empty() {
-        for d in &derived {
+        for d in &a.explained(&on_line) {
             md.push_str(&derivation_md(d));
         }
     }
@@ -102,7 +109,7 @@ pub fn hover(a: &Analysis, offset: usize) -> Option<Hover> {
     if md.is_empty() {
         return None;
     }
-    if !derived.is_empty() || keyword == "expect" {
+    if !on_line.is_empty() || keyword == "expect" {
         md.push_str(&format!("\n---\n*{GENERAL_CAUTION}*\n"));
     }
     Some(Hover { span, markdown: md })

@@ -13,7 +13,7 @@ pub mod labels;
 pub mod outline;
 pub mod tokens;
 
-use parax_eval::{Derived, Evaluation};
+use parax_eval::{Derived, EvalOptions, Evaluation};
 use parax_syntax::{Block, BlockKind, Line, Parsed, Span};
 
 pub use parax_eval::Edit;
@@ -28,10 +28,14 @@ pub struct Analysis {
 }
 
 impl Analysis {
-    /// Parse and evaluate `source`.
+    /// Parse and evaluate `source`. Values and diagnostics only: the
+    /// substituted formulas, which only a hover shows, are written on demand
+    /// by [`Analysis::explained`] (formatting every formula of the file on
+    /// every edit was most of an edit's evaluation time).
     pub fn new(source: &str) -> Self {
         let parsed = parax_syntax::parse(source);
-        let evaluation = parax_eval::evaluate_incremental(&parsed, None);
+        let evaluation =
+            parax_eval::evaluate_incremental_with(&parsed, None, EvalOptions::VALUES_ONLY);
         Self::from_parts(parsed, evaluation)
     }
 
@@ -46,7 +50,13 @@ impl Analysis {
         let (range, insert) = changed(&parsed.source, source);
         let inserted = insert.len();
         let parsed = parsed.edit(range.clone(), insert);
-        let evaluation = parax_eval::evaluate_edit(&parsed, Some(evaluation), range, inserted);
+        let evaluation = parax_eval::evaluate_edit_with(
+            &parsed,
+            Some(evaluation),
+            range,
+            inserted,
+            EvalOptions::VALUES_ONLY,
+        );
         Self::from_parts(parsed, evaluation)
     }
 
@@ -90,6 +100,13 @@ impl Analysis {
             .values_starting_in(line.span)
             .into_iter()
             .map(move |i| &derived[i])
+    }
+
+    /// The values at `indices` of the evaluation's derived values with their
+    /// substituted formulas written (computed again for their blocks only, see
+    /// [`Evaluation::explained`]).
+    pub fn explained(&self, indices: &[usize]) -> Vec<Derived> {
+        self.evaluation.explained(indices)
     }
 
     /// The kind of the block that holds `line`, if any.

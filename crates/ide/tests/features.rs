@@ -112,6 +112,13 @@ fn hints_hover_outline_tokens_and_formatting() {
         h.last().map(|h| h.label.as_str()),
         Some("image 4.62 cm after B · mag -0.3846")
     );
+    // Without tooltips: the same hints where they were, tooltips left empty.
+    let bare = hints::inlay_hints_without_tooltips(&a, None);
+    assert_eq!(bare.len(), h.len());
+    for (b, full) in bare.iter().zip(&h) {
+        assert_eq!((b.offset, &b.label), (full.offset, &full.label));
+        assert!(b.tooltip.is_empty() && !full.tooltip.is_empty());
+    }
     let hv = hover::hover(&a, RELAY.find("lens B").unwrap() + 8).expect("hover");
     assert!(hv.markdown.contains("L' = L + F") && hv.markdown.contains("verify clinically"));
     let sym = outline::symbols(&a);

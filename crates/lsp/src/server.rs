@@ -413,8 +413,13 @@ impl LanguageServer for Server {
         };
         let lazy = self.lock().lazy_tooltips;
         let span = convert::span(&a, params.range, unit);
-        Ok(Some(
+        let found = if lazy {
+            hints::inlay_hints_without_tooltips(&a, Some(span))
+        } else {
             hints::inlay_hints(&a, Some(span))
+        };
+        Ok(Some(
+            found
                 .into_iter()
                 .map(|h| {
                     let position = convert::position(&a, h.offset, unit);

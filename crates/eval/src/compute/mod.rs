@@ -34,15 +34,16 @@ pub fn compute(
 
 /// The values of one eye block. Besides the block itself they depend on the
 /// `case` block and the frames (`case`), and on the eye's partner and previous
-/// visit (`visits`); nothing else.
+/// visit (`visits`); nothing else. Substituted formulas only when `derivations`.
 pub fn compute_eye(
     case: &Case,
     visits: &Visits<'_>,
     e: &Eye,
+    derivations: bool,
     derived: &mut Vec<Derived>,
     diags: &mut Vec<Diagnostic>,
 ) {
-    eye_values(case, visits, e, true, derived, diags);
+    eye_values(case, visits, e, derivations, derived, diags);
 }
 
 fn eye_values(
@@ -74,9 +75,14 @@ fn eye_block(
 }
 
 /// The values of every block other than the eye blocks, in the order of
-/// [`compute`].
-pub fn compute_others(case: &Case, derived: &mut Vec<Derived>, diags: &mut Vec<Diagnostic>) {
-    other_values(case, true, derived, diags);
+/// [`compute`]; substituted formulas only when `derivations`.
+pub fn compute_others(
+    case: &Case,
+    derivations: bool,
+    derived: &mut Vec<Derived>,
+    diags: &mut Vec<Diagnostic>,
+) {
+    other_values(case, derivations, derived, diags);
 }
 
 fn other_values(
