@@ -43,17 +43,6 @@ pub fn compute_eye(
     derived: &mut Vec<Derived>,
     diags: &mut Vec<Diagnostic>,
 ) {
-    eye_values(case, visits, e, derivations, derived, diags);
-}
-
-fn eye_values(
-    case: &Case,
-    visits: &Visits<'_>,
-    e: &Eye,
-    derivations: bool,
-    derived: &mut Vec<Derived>,
-    diags: &mut Vec<Diagnostic>,
-) {
     let mut out = Out::new(eye::block_id(e).into(), derivations, derived);
     eye_block(case, visits, e, &mut out, diags);
 }
@@ -77,15 +66,6 @@ fn eye_block(
 /// The values of every block other than the eye blocks, in the order of
 /// [`compute`]; substituted formulas only when `derivations`.
 pub fn compute_others(
-    case: &Case,
-    derivations: bool,
-    derived: &mut Vec<Derived>,
-    diags: &mut Vec<Diagnostic>,
-) {
-    other_values(case, derivations, derived, diags);
-}
-
-fn other_values(
     case: &Case,
     derivations: bool,
     derived: &mut Vec<Derived>,
