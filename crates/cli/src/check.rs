@@ -2,7 +2,7 @@
 
 use crate::render::{human, json, sarif};
 use crate::{files, Format};
-use parax_eval::{evaluate_source_each, EvalOptions, Severity};
+use parax_eval::{evaluate_source_streaming, EvalOptions, Severity};
 use rayon::prelude::*;
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -24,9 +24,10 @@ fn check_one(
 ) -> Result<(Checked, Option<serde_json::Value>), String> {
     let source = files::read(path)?;
     let name = files::display(path);
-    // Only diagnostics are shown: each block's values are dropped once its
-    // `expect` lines are judged, so memory holds one block's values at a time.
-    let (parsed, ev) = evaluate_source_each(&source, EvalOptions::VALUES_ONLY, &mut |_| {});
+    // Only diagnostics are shown: each block's lines are dropped once it is read
+    // into the case model, and its values once its `expect` lines are judged, so
+    // memory holds the case model and one block's tree and values at a time.
+    let (parsed, ev) = evaluate_source_streaming(&source, EvalOptions::VALUES_ONLY, &mut |_| {});
     let mut counts = [0; 3];
     for d in &ev.diagnostics {
         counts[match d.severity {

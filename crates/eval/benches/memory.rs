@@ -121,11 +121,18 @@ fn table(text: &str, label: &str) {
             count += v.len()
         })
     });
-    row(
-        "  values handed over block by block (`parax check`)",
-        peak,
-        held,
-    );
+    row("  values handed over block by block", peak, held);
+    assert_eq!(count, derived, "every value is handed over");
+    drop(both);
+    let mut count = 0;
+    let (peak, held, both) = measure(|| {
+        parax_eval::evaluate_source_streaming(
+            text,
+            parax_eval::EvalOptions::VALUES_ONLY,
+            &mut |v| count += v.len(),
+        )
+    });
+    row("  read block by block too (`parax check`)", peak, held);
     assert_eq!(count, derived, "every value is handed over");
     drop(both);
     let (peak, held, case) =

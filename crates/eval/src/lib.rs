@@ -188,6 +188,39 @@ pub fn evaluate_source_each(
     (parsed, evaluation)
 }
 
+/// Read, evaluate and check source text as a stream, handing the values to
+/// `each` (see [`evaluate_each`]): each top-level block is parsed, lowered into
+/// the case model and its lines dropped before the next block is read
+/// ([`parax_syntax::parse_each`]), so the syntax tree of the whole file and the
+/// case model are never alive together. The diagnostics, the case and the values
+/// are exactly those of [`evaluate_source_each`] (a test compares them on every
+/// example and fixture and after random edits). The returned [`Parsed`] has the
+/// source, the line index and the syntax errors, but no lines and no blocks: it
+/// serves to place and render diagnostics, as `parax check` does.
+pub fn evaluate_source_streaming(
+    source: &str,
+    options: EvalOptions,
+    each: &mut dyn FnMut(&[Derived]),
+) -> (Parsed, Evaluation) {
+    let mut case = model::Case::default();
+    let mut lowered = Vec::new();
+    let parsed = parax_syntax::parse_each(source, &mut |p, block| {
+        lower::lower_block(p, block, &mut case, &mut lowered)
+    });
+    let mut diagnostics: Vec<Diagnostic> = parsed.errors.iter().map(from_syntax).collect();
+    diagnostics.append(&mut lowered);
+    drop(lowered);
+    diagnostics.extend(evaluate_case_each(&case, options, each));
+    diagnostics.sort_by_key(|d| (d.span.start, d.severity));
+    let evaluation = Evaluation {
+        case,
+        derived: Vec::new(),
+        diagnostics,
+        memo: Default::default(),
+    };
+    (parsed, evaluation)
+}
+
 /// [`evaluate_case_with`] handing the values to `each` block by block instead of
 /// returning them (see [`evaluate_each`]); returns the diagnostics, in the order
 /// [`evaluate_case_with`] gives them.

@@ -1,9 +1,11 @@
 //! `evaluate_each` (values handed to a callback block by block, as `parax check`
 //! uses it) must give exactly the diagnostics and case of `evaluate_with`, and
 //! hand over exactly its values in the same order; checked on every example and
-//! fixture, on files whose blocks share an id, and after random edits.
+//! fixture, on files whose blocks share an id, and after random edits; and so
+//! must `evaluate_source_streaming` (parse, lower and drop the lines block by
+//! block, as `parax check` reads), on those files and on generated case files.
 
-use parax_eval::{evaluate_each, evaluate_with, Derived, EvalOptions};
+use parax_eval::{evaluate_each, evaluate_source_streaming, evaluate_with, Derived, EvalOptions};
 use parax_syntax::parse;
 use proptest::prelude::*;
 use std::path::Path;
@@ -74,6 +76,29 @@ fn same(text: &str) -> Result<usize, TestCaseError> {
             text
         );
         prop_assert_eq!(&each.case, &full.case);
+        let mut streamed = Vec::new();
+        let (read, stream) =
+            evaluate_source_streaming(text, options, &mut |v| streamed.extend_from_slice(v));
+        prop_assert!(
+            stream.derived.is_empty(),
+            "values are handed over, not kept"
+        );
+        prop_assert_eq!(
+            summary(&streamed),
+            summary(&full.derived),
+            "streamed values of {:?}",
+            text
+        );
+        prop_assert_eq!(
+            &stream.diagnostics,
+            &full.diagnostics,
+            "streamed diagnostics of {:?}",
+            text
+        );
+        prop_assert_eq!(&stream.case, &full.case);
+        prop_assert_eq!(&read.errors, &parsed.errors);
+        prop_assert_eq!(&read.source, &parsed.source);
+        prop_assert!(read.lines.is_empty() && read.blocks.is_empty());
     }
     Ok(calls)
 }
@@ -106,6 +131,19 @@ fn values_come_one_block_at_a_time_unless_ids_repeat() {
     assert_eq!(same(&text).unwrap(), blocks);
 }
 
+#[path = "../benches/corpus/mod.rs"]
+mod corpus;
+
+/// Generated case files (the benches' corpus generator: invented patients and
+/// numbers) and a large file of many blocks read the same streamed as whole.
+#[test]
+fn generated_files_give_the_same_result_streamed() {
+    for i in 0..40 {
+        same(&corpus::case_file(i)).unwrap();
+    }
+    same(&corpus::big_file(200 * 1024)).unwrap();
+}
+
 const PIECES: &[&str] = &[
     "",
     "\n",
@@ -120,6 +158,10 @@ const PIECES: &[&str] = &[
     "  expect spherical-equivalent -1.75 D\n",
     "frame\n  vertex 10 mm\n",
     "  expect nothing-such 1\n",
+    "refraction -1.00\n",
+    "%%% not a line\n",
+    "# note\n",
+    "  # indented note\n",
 ];
 
 fn floor(s: &str, mut at: usize) -> usize {

@@ -18,6 +18,6 @@ mod tree;
 
 pub use error::{codes, SyntaxError};
 pub use line_index::{ColumnUnit, LineIndex, LinePos};
-pub use parser::{parse, reparse};
+pub use parser::{parse, parse_each, reparse};
 pub use span::{Span, MAX_SOURCE_BYTES};
 pub use tree::*;

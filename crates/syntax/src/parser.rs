@@ -513,31 +513,54 @@ fn unterminated_quote(text: &str) -> Option<usize> {
 /// Group lines into blocks and flag statements that stand outside any block.
 fn group_blocks(source: &str, lines: &mut [Line], errors: &mut Vec<SyntaxError>) -> Vec<Block> {
     let mut blocks = Vec::new();
-    // (kind, header line, last line that belongs to the block)
-    let mut open: Option<(BlockKind, usize, usize)> = None;
-    // After an unreadable column-0 line, indented lines are its body: no extra errors.
-    let mut orphaned = false;
-    let close =
-        |open: Option<(BlockKind, usize, usize)>, lines: &[Line], blocks: &mut Vec<Block>| {
-            if let Some((kind, header, last)) = open {
-                blocks.push(Block {
-                    kind,
-                    header,
-                    end: last + 1,
-                    span: Span::new(lines[header].span.start(), lines[last].span.end()),
-                });
-            }
-        };
+    let mut grouper = Grouper::default();
+    let block = |(kind, header, last): (BlockKind, usize, usize), lines: &[Line]| Block {
+        kind,
+        header,
+        end: last + 1,
+        span: Span::new(lines[header].span.start(), lines[last].span.end()),
+    };
     for i in 0..lines.len() {
-        let top = lines[i].indent == 0;
-        match &lines[i].kind {
+        if let Some(closed) = grouper.step(source, i, &mut lines[i], errors) {
+            blocks.push(block(closed, lines));
+        }
+    }
+    if let Some(closed) = grouper.open.take() {
+        blocks.push(block(closed, lines));
+    }
+    blocks
+}
+
+/// The grouping of lines into blocks, one line at a time, shared by [`parse`] and
+/// [`parse_each`] so that both group exactly alike.
+#[derive(Default)]
+struct Grouper {
+    /// (kind, header line, last line that belongs to the block)
+    open: Option<(BlockKind, usize, usize)>,
+    /// After an unreadable column-0 line, indented lines are its body: no extra errors.
+    orphaned: bool,
+}
+
+impl Grouper {
+    /// Take line `i` (every earlier line was taken before); returns the block it
+    /// closes, if any, as (kind, header line, last line).
+    fn step(
+        &mut self,
+        source: &str,
+        i: usize,
+        line: &mut Line,
+        errors: &mut Vec<SyntaxError>,
+    ) -> Option<(BlockKind, usize, usize)> {
+        let top = line.indent == 0;
+        match &line.kind {
             LineKind::Header { block, .. } => {
-                close(open.take(), lines, &mut blocks);
-                open = Some((*block, i, i));
-                orphaned = false;
+                let closed = self.open.take();
+                self.open = Some((*block, i, i));
+                self.orphaned = false;
+                return closed;
             }
-            LineKind::Statement { .. } if open.is_none() && !orphaned => {
-                let span = lines[i].span;
+            LineKind::Statement { .. } if self.open.is_none() && !self.orphaned => {
+                let span = line.span;
                 let text = &source[span.start()..span.end()];
                 let kw_start = span.start() + indent_width(text) as usize;
                 errors.push(SyntaxError {
@@ -551,25 +574,124 @@ fn group_blocks(source: &str, lines: &mut [Line], errors: &mut Vec<SyntaxError>)
                     ),
                     replacement: None,
                 });
-                lines[i].kind = LineKind::Error {
+                line.kind = LineKind::Error {
                     error: errors.len() - 1,
                 };
-                lines[i].comment = None;
+                line.comment = None;
             }
             LineKind::Error { .. } if top => {
-                close(open.take(), lines, &mut blocks);
-                orphaned = true;
+                self.orphaned = true;
+                return self.open.take();
             }
-            LineKind::Trivia if top || lines[i].comment.is_none() => {}
+            LineKind::Trivia if top || line.comment.is_none() => {}
             _ => {
-                if let Some(o) = open.as_mut() {
+                if let Some(o) = self.open.as_mut() {
                     o.2 = i;
                 }
             }
         }
+        None
     }
-    close(open.take(), lines, &mut blocks);
-    blocks
+}
+
+/// Parse `source` one top-level block at a time and hand each block to `each`
+/// as soon as it is read, with a [`Parsed`] that holds the whole source but only
+/// that block's lines (the [`Block`] passed along indexes them: its `header` is
+/// 0). The lines are dropped once `each` returns, so the syntax tree of the
+/// whole file never exists: a reader that keeps only what it draws from each
+/// block (`parax check` keeps the case model) holds one block's tree at a time.
+///
+/// The blocks, their lines and the errors are exactly those of [`parse`] (a test
+/// in the evaluator compares the two on every example and fixture and after
+/// random edits), except that, while `each` runs, the error lines' indices point
+/// into the errors read so far, in reading order. Returns the source, the line
+/// index and every syntax error in source order, with no lines and no blocks.
+pub fn parse_each(source: &str, each: &mut dyn FnMut(&Parsed, &Block)) -> Parsed {
+    if source.len() > crate::span::MAX_SOURCE_BYTES {
+        return too_large(source);
+    }
+    let index = LineIndex::new(source);
+    let count = index.line_count();
+    let mut window = Parsed {
+        source: source.to_owned(),
+        lines: Vec::new(),
+        blocks: Vec::new(),
+        errors: Vec::new(),
+        index,
+    };
+    // Lines read and not yet handed over: global line `first + k` is `pending[k]`.
+    let mut pending: Vec<Line> = Vec::new();
+    let mut first = 0;
+    let mut grouper = Grouper::default();
+    let mut hand_over = |(kind, header, last): (BlockKind, usize, usize),
+                         pending: &mut [Line],
+                         first: usize,
+                         window: &mut Parsed| {
+        // Move the block's lines out (the grouper never looks back at them).
+        window.lines.clear();
+        window
+            .lines
+            .extend(pending[header - first..=last - first].iter_mut().map(|l| {
+                std::mem::replace(
+                    l,
+                    Line {
+                        span: l.span,
+                        indent: 0,
+                        kind: LineKind::Trivia,
+                        comment: None,
+                    },
+                )
+            }));
+        let block = Block {
+            kind,
+            header: 0,
+            end: last - header + 1,
+            span: Span::new(
+                window.lines[0].span.start(),
+                window.lines[last - header].span.end(),
+            ),
+        };
+        each(window, &block);
+        window.lines.clear();
+    };
+    let mut start = 0;
+    while start < count {
+        let mut end = start + 1;
+        while end < count && !opens_block(&window.source, window.index.line_start(end)) {
+            end += 1;
+        }
+        let from = pending.len();
+        parse_lines(
+            &window.source,
+            &window.index,
+            start..end,
+            &mut pending,
+            &mut window.errors,
+        );
+        for k in from..pending.len() {
+            let closed = grouper.step(
+                &window.source,
+                first + k,
+                &mut pending[k],
+                &mut window.errors,
+            );
+            if let Some(closed) = closed {
+                hand_over(closed, &mut pending, first, &mut window);
+            }
+        }
+        // Keep only the lines of the block still open.
+        let keep = grouper.open.map_or(end, |(_, header, _)| header);
+        pending.drain(..keep - first);
+        first = keep;
+        start = end;
+    }
+    if let Some(closed) = grouper.open.take() {
+        hand_over(closed, &mut pending, first, &mut window);
+    }
+    drop(pending);
+    window.lines = Vec::new();
+    window.errors.sort_by_key(|e| e.span.start);
+    window
 }
 
 #[cfg(test)]
