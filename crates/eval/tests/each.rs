@@ -164,14 +164,6 @@ const PIECES: &[&str] = &[
     "  # indented note\n",
 ];
 
-fn floor(s: &str, mut at: usize) -> usize {
-    at = at.min(s.len());
-    while !s.is_char_boundary(at) {
-        at -= 1;
-    }
-    at
-}
-
 proptest! {
     #![proptest_config(ProptestConfig::with_cases(128))]
     #[test]
@@ -185,8 +177,8 @@ proptest! {
         let files = files();
         let mut text = files[file.index(files.len())].clone();
         for (at, len, pieces) in edits {
-            let start = floor(&text, at.index(text.len() + 1));
-            let end = floor(&text, start + len);
+            let start = text.floor_char_boundary(at.index(text.len() + 1));
+            let end = text.floor_char_boundary(start + len);
             let insert: String = pieces.iter().map(|&i| PIECES[i]).collect();
             text.replace_range(start..end, &insert);
         }

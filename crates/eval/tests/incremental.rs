@@ -88,14 +88,6 @@ fn summary(e: &Evaluation) -> Vec<(String, String, (usize, usize))> {
         .collect()
 }
 
-fn floor(s: &str, mut at: usize) -> usize {
-    at = at.min(s.len());
-    while !s.is_char_boundary(at) {
-        at -= 1;
-    }
-    at
-}
-
 proptest! {
     #![proptest_config(ProptestConfig::with_cases(256))]
     #[test]
@@ -115,8 +107,8 @@ proptest! {
         // Values only, derivations written on demand.
         let mut quiet = parax_eval::evaluate_incremental_with(&parsed, None, EvalOptions::VALUES_ONLY);
         for (at, len, pieces) in edits {
-            let start = floor(&text, at.index(text.len() + 1));
-            let end = floor(&text, start + len);
+            let start = text.floor_char_boundary(at.index(text.len() + 1));
+            let end = text.floor_char_boundary(start + len);
             let insert: String = pieces.iter().map(|&i| PIECES[i]).collect();
             parsed = reparse(&parsed, start..end, &insert);
             text.replace_range(start..end, &insert);

@@ -48,10 +48,7 @@ pub const MODEL_EYES: &[(&str, &str)] = &[
 /// Completion items at byte `offset`.
 pub fn complete(a: &Analysis, offset: usize) -> Vec<Item> {
     let src = a.source();
-    let mut offset = offset.min(src.len());
-    while !src.is_char_boundary(offset) {
-        offset -= 1;
-    }
+    let offset = src.floor_char_boundary(offset);
     let line_i = a.line_at(offset);
     let start = a.parsed.index.line_start(line_i);
     let before = &src[start..offset];

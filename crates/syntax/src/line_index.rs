@@ -101,10 +101,7 @@ impl LineIndex {
     /// Position of byte `offset` with the column in `unit`. Offsets past the end or
     /// inside a character are clamped to the nearest earlier character boundary.
     pub fn position(&self, text: &str, offset: usize, unit: ColumnUnit) -> LinePos {
-        let mut offset = offset.min(text.len());
-        while !text.is_char_boundary(offset) {
-            offset -= 1;
-        }
+        let offset = text.floor_char_boundary(offset);
         let line = self.line_of(offset);
         let start = self.line_start(line);
         let before = &text[start..offset];

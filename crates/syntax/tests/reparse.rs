@@ -64,15 +64,6 @@ fn assert_same(got: &Parsed, want: &Parsed) {
     assert_eq!(got.index.line_count(), want.index.line_count());
 }
 
-/// Snap a byte offset down to a character boundary.
-fn floor(s: &str, mut at: usize) -> usize {
-    at = at.min(s.len());
-    while !s.is_char_boundary(at) {
-        at -= 1;
-    }
-    at
-}
-
 proptest! {
     #![proptest_config(ProptestConfig::with_cases(512))]
     #[test]
@@ -87,8 +78,8 @@ proptest! {
         let mut text = files[file.index(files.len())].clone();
         let mut parsed = parse(&text);
         for (at, len, pieces) in edits {
-            let start = floor(&text, at.index(text.len() + 1));
-            let end = floor(&text, start + len);
+            let start = text.floor_char_boundary(at.index(text.len() + 1));
+            let end = text.floor_char_boundary(start + len);
             let insert: String = pieces.iter().map(|&i| PIECES[i]).collect();
             parsed = reparse(&parsed, start..end, &insert);
             text.replace_range(start..end, &insert);
@@ -141,7 +132,7 @@ proptest! {
     ) {
         let files = fixtures();
         let base = &files[file.index(files.len())];
-        let at = floor(base, cut.index(base.len() + 1));
+        let at = base.floor_char_boundary(cut.index(base.len() + 1));
         let insert: String = pieces.iter().map(|&i| PIECES[i]).collect();
         let mut text = base.clone();
         text.insert_str(at, &insert);
