@@ -212,9 +212,14 @@ impl DerivedValue {
                 format!("{} x {}", fmt_power(*dioptres), fmt_axis(*axis))
             }
             DerivedValue::Distance { metres, from } => {
-                let cm = metres * 100.0;
                 let side = if *metres >= 0.0 { "after" } else { "before" };
-                format!("{:.2} cm {side} {from}", cm.abs())
+                // Under a centimetre (pupils, cardinal points inside the eye) in
+                // millimetres, so two decimals still carry the value.
+                if metres.abs() < 0.01 {
+                    format!("{:.2} mm {side} {from}", metres.abs() * 1000.0)
+                } else {
+                    format!("{:.2} cm {side} {from}", metres.abs() * 100.0)
+                }
             }
             DerivedValue::Infinity => "infinity".into(),
             DerivedValue::Length { metres } => format!("{:.2} mm", metres * 1000.0),
@@ -359,5 +364,18 @@ mod tests {
         ] {
             assert_eq!(fmt_axis(axis), text, "axis {axis}");
         }
+    }
+
+    /// Distances under a centimetre are shown in millimetres (exact unit change).
+    #[test]
+    fn short_distances_are_shown_in_millimetres() {
+        use super::DerivedValue;
+        let d = |metres: f64| DerivedValue::Distance {
+            metres,
+            from: "the cornea".into(),
+        };
+        assert_eq!(d(0.0030434).display(), "3.04 mm after the cornea");
+        assert_eq!(d(-0.0015).display(), "1.50 mm before the cornea");
+        assert_eq!(d(0.0153846).display(), "1.54 cm after the cornea");
     }
 }
