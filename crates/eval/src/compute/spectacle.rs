@@ -515,19 +515,21 @@ fn material(l: &SpectacleLens, diags: &mut Vec<Diagnostic>) {
 /// is ED + 2 × decentration.
 fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
     let Some(e) = edged(case, l) else { return };
-    let why = format!(
+    let why = || {
+        format!(
         "horizontal (A + DBL)/2 − centre distance/2 = {} mm, vertical OC height − B/2 = {} mm → {} mm",
         n4(e.horizontal * 1000.0),
         n4(e.vertical * 1000.0),
         n4(e.total * 1000.0)
-    );
+        )
+    };
     out.push(
         "decentration",
         "decentration of the optical centre from the boxed centre",
         V::Length { metres: e.total },
         e.span,
         "dec = √(((A + DBL − CD)/2)² + (OC height − B/2)²)",
-        || why,
+        why,
         src::BLANK_SIZE,
     );
     let mbs = lens_form::minimum_blank(e.effective_diameter, e.total);
@@ -568,7 +570,8 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
     }
     let y = lens_form::farthest_point(e.effective_diameter, e.total);
     let Some(f) = form_at(l, y) else { return };
-    let why = format!(
+    let why = || {
+        format!(
         "strongest meridian {} D, F1 {} D, n {}, farthest point ED/2 + dec = {} mm: F2 = Fv − F1/(1 − (t/n)F1); edge = centre + s_back − s_front → centre {} mm, edge {} mm",
         n4(f.strongest),
         n4(f.f1),
@@ -576,14 +579,15 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
         n4(f.y * 1000.0),
         n4(f.centre * 1000.0),
         n4(f.edge * 1000.0)
-    );
+        )
+    };
     out.push(
         "edged-thickness-centre",
         "centre thickness of the lens edged to the frame",
         V::Length { metres: f.centre },
         e.span,
         "minus: centre = minimum; plus: centre = edge + s_front − s_back, at the farthest point",
-        || why.clone(),
+        why,
         src::SAG,
     );
     out.push(
@@ -592,7 +596,7 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
         V::Length { metres: f.edge },
         e.span,
         "edge = centre + s_back − s_front at y = ED/2 + decentration",
-        || why,
+        why,
         src::SAG,
     );
 }
@@ -600,7 +604,8 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
 fn thickness(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
     let Some(f) = form(l) else { return };
     let y = f.y;
-    let why = format!(
+    let why = || {
+        format!(
         "strongest meridian {} D, F1 {} D, n {}, y {} mm: F2 = Fv − F1/(1 − (t/n)F1); edge = centre + s_back − s_front with s = r − √(r² − y²) → centre {} mm, edge {} mm",
         n4(f.strongest),
         n4(f.f1),
@@ -608,7 +613,8 @@ fn thickness(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) 
         n4(y * 1000.0),
         n4(f.centre * 1000.0),
         n4(f.edge * 1000.0)
-    );
+        )
+    };
     let span = l.blank_diameter.as_ref().map_or(l.span, |d| d.span);
     out.push(
         "thickness-centre",
@@ -616,7 +622,7 @@ fn thickness(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) 
         V::Length { metres: f.centre },
         span,
         "minus: centre = minimum; plus: centre = edge + s_front − s_back",
-        || why.clone(),
+        why,
         src::SAG,
     );
     out.push(
@@ -625,7 +631,7 @@ fn thickness(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) 
         V::Length { metres: f.edge },
         span,
         "edge = centre + s_back − s_front",
-        || why,
+        why,
         src::SAG,
     );
     let (min_c, min_e) = minimums(l, f.index);
