@@ -78,7 +78,9 @@ module.exports = grammar({
       optional($.comment),
     ),
 
-    comment: _ => token(seq('#', /[^\r\n]*/)),
+    // To the line break; a carriage return not before a line feed is text, as in
+    // pest (a run of carriage returns just before the line break is left out).
+    comment: _ => token(seq('#', /([^\r\n]|\r+[^\r\n])*/)),
 
     block_kind: _ => choice(
       'case', 'eye', 'frame', 'spectacle-lens', 'contact-lens', 'system', 'model-eye',
@@ -108,7 +110,9 @@ module.exports = grammar({
     // Spellings that are also words (`mm`, `D`, `Δ`) are found through `word`.
     unit: _ => choice('mm', 'cm', 'm', 'deg', 'DS', 'DC', 'D', 'prism', 'y', '°', 'Δ', '%'),
 
-    string: _ => /"([^"\\\r\n]|\\[^\r\n])*"/,
+    // No line feed can stand inside, so every carriage return inside is a lone
+    // one, which pest reads as text (and as the character after a backslash).
+    string: _ => /"([^"\\\n]|\\[^\n])*"/,
 
     /** The axis sign of a cylinder, `x` or `×`, written before the axis. */
     axis_sign: _ => choice('x', '×'),

@@ -377,17 +377,19 @@ fn walk_value(pair: Pair<'_, Rule>, base: usize) -> Value {
             let num = inner.next().expect("quantity has a number");
             let text = num.as_str();
             let unit = inner.next().map(|u| shift(u.as_span(), base));
-            let (signed, digits) = match text.chars().next() {
-                Some('−') => (true, format!("-{}", &text['−'.len_utf8()..])),
-                Some('+') | Some('-') => (true, text.to_owned()),
-                _ => (false, text.to_owned()),
+            // `−` (U+2212) reads as `-`; only then is a copy needed.
+            let (signed, negative, digits) = match text.chars().next() {
+                Some('−') => (true, true, &text['−'.len_utf8()..]),
+                Some('+') | Some('-') => (true, false, text),
+                _ => (false, false, text),
             };
             let decimals = digits
                 .split_once('.')
                 .map_or(0, |(_, d)| d.len().min(255) as u8);
+            let value: f64 = digits.parse().unwrap_or(f64::NAN);
             ValueKind::Number {
                 number: shift(num.as_span(), base),
-                value: digits.parse().unwrap_or(f64::NAN),
+                value: if negative { -value } else { value },
                 signed,
                 decimals,
                 unit,

@@ -629,186 +629,189 @@ static bool ts_lex(TSLexer *lexer, TSStateId state) {
   eof = lexer->eof(lexer);
   switch (state) {
     case 0:
-      if (eof) ADVANCE(14);
+      if (eof) ADVANCE(15);
       ADVANCE_MAP(
-        '\n', 15,
-        '\r', 16,
-        '"', 2,
-        '#', 18,
-        '%', 28,
-        '+', 5,
-        ',', 33,
-        '.', 7,
-        '/', 32,
-        '@', 34,
-        'x', 30,
-        0xb0, 27,
-        0xb1, 35,
-        0xd7, 31,
-        '\t', 17,
-        ' ', 17,
-        '-', 6,
-        0x2212, 6,
+        '\n', 16,
+        '\r', 17,
+        '"', 3,
+        '#', 19,
+        '%', 29,
+        '+', 6,
+        ',', 34,
+        '.', 8,
+        '/', 33,
+        '@', 35,
+        'x', 31,
+        0xb0, 28,
+        0xb1, 36,
+        0xd7, 32,
+        '\t', 18,
+        ' ', 18,
+        '-', 7,
+        0x2212, 7,
       );
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(24);
-      if (set_contains(sym_word_character_set_1, 678, lookahead)) ADVANCE(37);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(25);
+      if (set_contains(sym_word_character_set_1, 678, lookahead)) ADVANCE(38);
       END_STATE();
     case 1:
-      if (lookahead == '\n') ADVANCE(15);
+      if (lookahead == '\n') ADVANCE(16);
       END_STATE();
     case 2:
-      if (lookahead == '"') ADVANCE(29);
-      if (lookahead == '\\') ADVANCE(12);
+      if (lookahead == '\r') ADVANCE(2);
       if (lookahead != 0 &&
-          lookahead != '\n' &&
-          lookahead != '\r') ADVANCE(2);
+          lookahead != '\n') ADVANCE(19);
       END_STATE();
     case 3:
-      if (lookahead == '-') ADVANCE(36);
+      if (lookahead == '"') ADVANCE(30);
+      if (lookahead == '\\') ADVANCE(13);
+      if (lookahead != 0 &&
+          lookahead != '\n') ADVANCE(3);
       END_STATE();
     case 4:
-      if (lookahead == '-') ADVANCE(11);
+      if (lookahead == '-') ADVANCE(37);
       END_STATE();
     case 5:
-      if (lookahead == '.') ADVANCE(7);
-      if (lookahead == '/') ADVANCE(3);
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(25);
+      if (lookahead == '-') ADVANCE(12);
       END_STATE();
     case 6:
-      if (lookahead == '.') ADVANCE(7);
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(25);
+      if (lookahead == '.') ADVANCE(8);
+      if (lookahead == '/') ADVANCE(4);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(26);
       END_STATE();
     case 7:
+      if (lookahead == '.') ADVANCE(8);
       if (('0' <= lookahead && lookahead <= '9')) ADVANCE(26);
       END_STATE();
     case 8:
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(20);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(27);
       END_STATE();
     case 9:
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(4);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(21);
       END_STATE();
     case 10:
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(9);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(5);
       END_STATE();
     case 11:
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(8);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(10);
       END_STATE();
     case 12:
-      if (lookahead != 0 &&
-          lookahead != '\n' &&
-          lookahead != '\r') ADVANCE(2);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(9);
       END_STATE();
     case 13:
-      if (eof) ADVANCE(14);
-      if (lookahead == '\n') ADVANCE(15);
-      if (lookahead == '\r') ADVANCE(1);
-      if (lookahead == '#') ADVANCE(18);
-      if (('A' <= lookahead && lookahead <= 'Z') ||
-          ('a' <= lookahead && lookahead <= 'z')) ADVANCE(19);
+      if (lookahead != 0 &&
+          lookahead != '\n') ADVANCE(3);
       END_STATE();
     case 14:
-      ACCEPT_TOKEN(ts_builtin_sym_end);
+      if (eof) ADVANCE(15);
+      if (lookahead == '\n') ADVANCE(16);
+      if (lookahead == '\r') ADVANCE(1);
+      if (lookahead == '#') ADVANCE(19);
+      if (('A' <= lookahead && lookahead <= 'Z') ||
+          ('a' <= lookahead && lookahead <= 'z')) ADVANCE(20);
       END_STATE();
     case 15:
-      ACCEPT_TOKEN(sym__newline);
+      ACCEPT_TOKEN(ts_builtin_sym_end);
       END_STATE();
     case 16:
-      ACCEPT_TOKEN(sym__ws);
-      if (lookahead == '\n') ADVANCE(15);
-      if (lookahead == '\t' ||
-          lookahead == '\r' ||
-          lookahead == ' ') ADVANCE(17);
+      ACCEPT_TOKEN(sym__newline);
       END_STATE();
     case 17:
       ACCEPT_TOKEN(sym__ws);
+      if (lookahead == '\n') ADVANCE(16);
       if (lookahead == '\t' ||
           lookahead == '\r' ||
-          lookahead == ' ') ADVANCE(17);
+          lookahead == ' ') ADVANCE(18);
       END_STATE();
     case 18:
-      ACCEPT_TOKEN(sym_comment);
-      if (lookahead != 0 &&
-          lookahead != '\n' &&
-          lookahead != '\r') ADVANCE(18);
+      ACCEPT_TOKEN(sym__ws);
+      if (lookahead == '\t' ||
+          lookahead == '\r' ||
+          lookahead == ' ') ADVANCE(18);
       END_STATE();
     case 19:
+      ACCEPT_TOKEN(sym_comment);
+      if (lookahead == '\r') ADVANCE(2);
+      if (lookahead != 0 &&
+          lookahead != '\n') ADVANCE(19);
+      END_STATE();
+    case 20:
       ACCEPT_TOKEN(sym_keyword);
       if (lookahead == '-' ||
           ('0' <= lookahead && lookahead <= '9') ||
           ('A' <= lookahead && lookahead <= 'Z') ||
           lookahead == '_' ||
-          ('a' <= lookahead && lookahead <= 'z')) ADVANCE(19);
-      END_STATE();
-    case 20:
-      ACCEPT_TOKEN(sym_date);
+          ('a' <= lookahead && lookahead <= 'z')) ADVANCE(20);
       END_STATE();
     case 21:
-      ACCEPT_TOKEN(sym_number);
-      if (lookahead == '-') ADVANCE(10);
-      if (lookahead == '.') ADVANCE(26);
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(25);
+      ACCEPT_TOKEN(sym_date);
       END_STATE();
     case 22:
       ACCEPT_TOKEN(sym_number);
-      if (lookahead == '.') ADVANCE(26);
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(21);
+      if (lookahead == '-') ADVANCE(11);
+      if (lookahead == '.') ADVANCE(27);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(26);
       END_STATE();
     case 23:
       ACCEPT_TOKEN(sym_number);
-      if (lookahead == '.') ADVANCE(26);
+      if (lookahead == '.') ADVANCE(27);
       if (('0' <= lookahead && lookahead <= '9')) ADVANCE(22);
       END_STATE();
     case 24:
       ACCEPT_TOKEN(sym_number);
-      if (lookahead == '.') ADVANCE(26);
+      if (lookahead == '.') ADVANCE(27);
       if (('0' <= lookahead && lookahead <= '9')) ADVANCE(23);
       END_STATE();
     case 25:
       ACCEPT_TOKEN(sym_number);
-      if (lookahead == '.') ADVANCE(26);
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(25);
+      if (lookahead == '.') ADVANCE(27);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(24);
       END_STATE();
     case 26:
       ACCEPT_TOKEN(sym_number);
+      if (lookahead == '.') ADVANCE(27);
       if (('0' <= lookahead && lookahead <= '9')) ADVANCE(26);
       END_STATE();
     case 27:
-      ACCEPT_TOKEN(anon_sym_u00b0);
+      ACCEPT_TOKEN(sym_number);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(27);
       END_STATE();
     case 28:
-      ACCEPT_TOKEN(anon_sym_PERCENT);
+      ACCEPT_TOKEN(anon_sym_u00b0);
       END_STATE();
     case 29:
-      ACCEPT_TOKEN(sym_string);
+      ACCEPT_TOKEN(anon_sym_PERCENT);
       END_STATE();
     case 30:
+      ACCEPT_TOKEN(sym_string);
+      END_STATE();
+    case 31:
       ACCEPT_TOKEN(anon_sym_x);
       if (lookahead == '-' ||
           ('A' <= lookahead && lookahead <= 'Z') ||
           lookahead == '_' ||
-          ('a' <= lookahead && lookahead <= 'z')) ADVANCE(37);
-      END_STATE();
-    case 31:
-      ACCEPT_TOKEN(anon_sym_u00d7);
+          ('a' <= lookahead && lookahead <= 'z')) ADVANCE(38);
       END_STATE();
     case 32:
-      ACCEPT_TOKEN(anon_sym_SLASH);
+      ACCEPT_TOKEN(anon_sym_u00d7);
       END_STATE();
     case 33:
-      ACCEPT_TOKEN(anon_sym_COMMA);
+      ACCEPT_TOKEN(anon_sym_SLASH);
       END_STATE();
     case 34:
-      ACCEPT_TOKEN(anon_sym_AT);
+      ACCEPT_TOKEN(anon_sym_COMMA);
       END_STATE();
     case 35:
-      ACCEPT_TOKEN(anon_sym_u00b1);
+      ACCEPT_TOKEN(anon_sym_AT);
       END_STATE();
     case 36:
-      ACCEPT_TOKEN(anon_sym_PLUS_SLASH_DASH);
+      ACCEPT_TOKEN(anon_sym_u00b1);
       END_STATE();
     case 37:
+      ACCEPT_TOKEN(anon_sym_PLUS_SLASH_DASH);
+      END_STATE();
+    case 38:
       ACCEPT_TOKEN(sym_word);
-      if (set_contains(sym_word_character_set_2, 681, lookahead)) ADVANCE(37);
+      if (set_contains(sym_word_character_set_2, 681, lookahead)) ADVANCE(38);
       END_STATE();
     default:
       return false;
@@ -1068,7 +1071,7 @@ static const TSLexerMode ts_lex_modes[STATE_COUNT] = {
   [21] = {.lex_state = 0},
   [22] = {.lex_state = 0},
   [23] = {.lex_state = 0},
-  [24] = {.lex_state = 13},
+  [24] = {.lex_state = 14},
   [25] = {.lex_state = 0},
   [26] = {.lex_state = 0},
   [27] = {.lex_state = 0},
