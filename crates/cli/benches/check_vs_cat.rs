@@ -12,6 +12,7 @@
 #[path = "../../eval/benches/corpus/mod.rs"]
 mod corpus;
 
+use pest::Parser as _;
 use std::path::{Path, PathBuf};
 use std::process::{Command, Stdio};
 use std::time::{Duration, Instant};
@@ -206,6 +207,8 @@ fn main() {
         one / all
     );
 
+    floor(&dir, &rel, cat_median);
+
     if std::env::var_os("PARAX_BENCH_KEEP").is_none() {
         let _ = std::fs::remove_dir_all(&dir);
     } else {
@@ -217,6 +220,63 @@ fn main() {
             "kept the corpus in {} and the 5 MB file as {}",
             dir.display(),
             big.display()
+        );
+    }
+}
+
+// pest_derive without `std` writes `alloc::` paths.
+extern crate alloc;
+
+/// The project's pest grammar, generated once more here so that the benchmark
+/// can time the grammar alone: no tree walk, no evaluation, no output.
+#[derive(pest_derive::Parser)]
+#[grammar = "../../grammar/parax.pest"]
+struct Grammar;
+
+/// Lower bounds of `parax check` on one thread, in this process, over the same
+/// files: reading them (open, size, read, close: `cat`'s work without the
+/// output), and reading them plus running the pest grammar over each file's text
+/// (one `file` rule per file, which is at most what the parser's per-block runs
+/// do). `parax check` cannot be faster than the second row; when that row is
+/// slower than `cat`, no tree walk or evaluation, however fast, meets "no slower
+/// than `cat` on one thread" with this grammar and this parser generator.
+fn floor(dir: &Path, rel: &[String], cat: Duration) {
+    let read_all = || -> Vec<String> {
+        rel.iter()
+            .map(|r| std::fs::read_to_string(dir.join(r)).expect("read a corpus file"))
+            .collect()
+    };
+    let median = |f: &dyn Fn() -> usize| {
+        let mut t: Vec<Duration> = (0..RUNS)
+            .map(|_| {
+                let start = Instant::now();
+                std::hint::black_box(f());
+                start.elapsed()
+            })
+            .collect();
+        t.sort();
+        t[t.len() / 2]
+    };
+    let read = median(&|| read_all().len());
+    let grammar = median(&|| {
+        read_all()
+            .iter()
+            .map(|text| {
+                Grammar::parse(Rule::file, text)
+                    .expect("the corpus is valid")
+                    .count()
+            })
+            .sum()
+    });
+    println!("\nfloors, one thread, in this process (medians of {RUNS}):");
+    for (name, t) in [
+        ("read every file (no output)", read),
+        ("read + pest grammar alone (no tree walk)", grammar),
+    ] {
+        println!(
+            "{name:<44} {:>9.1} ms {:>8.2}× cat",
+            t.as_secs_f64() * 1e3,
+            t.as_secs_f64() / cat.as_secs_f64()
         );
     }
 }

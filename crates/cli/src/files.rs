@@ -64,12 +64,17 @@ pub fn read(path: &Path) -> Result<String, String> {
             .map_err(|e| format!("<stdin>: {e}"))?;
         s
     } else {
-        if let Ok(meta) = std::fs::metadata(path) {
-            if meta.len() > parax_syntax::MAX_SOURCE_BYTES as u64 {
-                return Err(too_large(meta.len()));
-            }
+        // One open and one size query per file (`fs::metadata` and then
+        // `fs::read_to_string` asked the file system for the size twice).
+        let io_error = |e: std::io::Error| format!("{}: {e}", path.display());
+        let mut file = std::fs::File::open(path).map_err(io_error)?;
+        let size = file.metadata().map_or(0, |m| m.len());
+        if size > parax_syntax::MAX_SOURCE_BYTES as u64 {
+            return Err(too_large(size));
         }
-        std::fs::read_to_string(path).map_err(|e| format!("{}: {e}", path.display()))?
+        let mut s = String::with_capacity(size as usize + 1);
+        std::io::Read::read_to_string(&mut file, &mut s).map_err(io_error)?;
+        s
     };
     if text.len() > parax_syntax::MAX_SOURCE_BYTES {
         return Err(too_large(text.len() as u64));
