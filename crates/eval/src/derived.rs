@@ -11,6 +11,7 @@ use parax_syntax::Span;
 use serde::ser::SerializeStruct;
 use serde::{Serialize, Serializer};
 use std::borrow::Cow;
+use std::fmt;
 use std::sync::Arc;
 
 /// A published source or a practice rule, with its provenance tag.
@@ -162,72 +163,169 @@ impl Serialize for Derived {
     }
 }
 
+/// Writes `value` with two decimals exactly as `format!("{value:.2}")` does
+/// (with `plus`, as `{:+.2}`), without the standard library's exact float
+/// formatting where that is safe. Hints and hovers format many values per edit
+/// and the exact path (Grisu with a Dragon fallback, on every value) was a
+/// tenth of the language server's time. Hand-rolled because no library offers
+/// fixed decimals equal to `{:.2}`; property tests (tests/fmt_power.rs) compare
+/// it with `format!` on random and on tie values.
+fn write_fixed2(out: &mut impl fmt::Write, value: f64, plus: bool) -> fmt::Result {
+    let scaled = value * 100.0;
+    let rounded = scaled.round();
+    // Far from a tie (x.5 hundredths), the rounding of the (inexact) product
+    // is the rounding of the exact value: the product's error is below 1e-7
+    // of a hundredth for |value| < 1e7. Ties, near-ties and huge values take
+    // the exact path.
+    let near_tie = ((scaled - scaled.trunc()).abs() - 0.5).abs() < 1e-6;
+    if !value.is_finite() || near_tie || scaled.abs() >= 1e9 {
+        return if plus {
+            write!(out, "{value:+.2}")
+        } else {
+            write!(out, "{value:.2}")
+        };
+    }
+    let hundredths = rounded.abs() as u64;
+    // `{:.2}` keeps the sign of a negative value that rounds to zero (`-0.00`).
+    let sign = if value.is_sign_negative() {
+        "-"
+    } else if plus {
+        "+"
+    } else {
+        ""
+    };
+    write!(out, "{sign}{}.{:02}", hundredths / 100, hundredths % 100)
+}
+
+/// A power as the trade writes it, for `write!`: sign always, two decimals
+/// (|d| < 0.005 shown as `+0.00`).
+#[derive(Debug, Clone, Copy)]
+pub struct Dioptres(pub f64);
+
+impl fmt::Display for Dioptres {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let d = if self.0.abs() < 0.005 { 0.0 } else { self.0 };
+        write_fixed2(f, d, true)
+    }
+}
+
+/// Two decimals, as `{:.2}` writes them, for `write!`.
+#[derive(Debug, Clone, Copy)]
+pub struct Fixed2(pub f64);
+
+impl fmt::Display for Fixed2 {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write_fixed2(f, self.0, false)
+    }
+}
+
+/// An axis or meridian as a whole number of degrees in 1..=180, for `write!`.
+#[derive(Debug, Clone, Copy)]
+pub struct Axis(pub f64);
+
+impl fmt::Display for Axis {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        // 0 is written 180, and an axis that rounds past 180 wraps to the start
+        // (common practice, no source: axes are written 1–180).
+        let a = (self.0.round() as i64 - 1).rem_euclid(180) + 1;
+        write!(f, "{a}")
+    }
+}
+
+/// A sphere / cylinder × axis, for `write!`: `-3.82 / -1.12 x 10`, or
+/// `-3.82 DS` without cylinder.
+#[derive(Debug, Clone, Copy)]
+pub struct SphCyl {
+    /// Sphere, D.
+    pub sphere: f64,
+    /// Cylinder, D.
+    pub cylinder: f64,
+    /// Axis, degrees.
+    pub axis: f64,
+}
+
+impl fmt::Display for SphCyl {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        if self.cylinder.abs() < 0.005 {
+            return write!(f, "{} DS", Dioptres(self.sphere));
+        }
+        write!(
+            f,
+            "{} / {} x {}",
+            Dioptres(self.sphere),
+            Dioptres(self.cylinder),
+            Axis(self.axis)
+        )
+    }
+}
+
 /// Format a power like the trade writes it: sign always, two decimals.
 pub fn fmt_power(d: f64) -> String {
-    let d = if d.abs() < 0.005 { 0.0 } else { d };
-    // Quarter steps (most clinical powers) are exact in binary, so their two
-    // decimals are exact and written from an integer: the standard library's
-    // exact float formatting falls back to its slow bignum path on exactly
-    // such values, and hints and hovers format many of them per edit. Equal
-    // to `{:+.2}` (a property test in tests/fmt_power.rs checks it).
-    let quarters = d * 4.0; // exact: a power of two
-    if quarters == quarters.trunc() && quarters.abs() < 1e15 {
-        let hundredths = (quarters as i64).abs() * 25;
-        let sign = if d < 0.0 { '-' } else { '+' };
-        return format!("{sign}{}.{:02}", hundredths / 100, hundredths % 100);
-    }
-    format!("{d:+.2}")
+    Dioptres(d).to_string()
 }
 
 /// Format a sphere/cylinder × axis: `-3.82 / -1.12 x 10`.
 pub fn fmt_sphcyl(s: f64, c: f64, axis: f64) -> String {
-    if c.abs() < 0.005 {
-        return format!("{} DS", fmt_power(s));
+    SphCyl {
+        sphere: s,
+        cylinder: c,
+        axis,
     }
-    format!("{} / {} x {}", fmt_power(s), fmt_power(c), fmt_axis(axis))
+    .to_string()
 }
 
 /// Format an axis as a whole number of degrees in 1..=180.
 pub fn fmt_axis(axis: f64) -> String {
-    // 0 is written 180, and an axis that rounds past 180 wraps to the start
-    // (common practice, no source: axes are written 1–180).
-    let a = (axis.round() as i64 - 1).rem_euclid(180) + 1;
-    format!("{a}")
+    Axis(axis).to_string()
 }
 
 impl DerivedValue {
-    /// Display text for this value.
+    /// Display text for this value (the [`fmt::Display`] form).
     pub fn display(&self) -> String {
+        self.to_string()
+    }
+}
+
+/// The compact text of a value, written straight into the destination (hints
+/// and tooltips write many per edit).
+impl fmt::Display for DerivedValue {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
-            DerivedValue::Power { dioptres } => format!("{} D", fmt_power(*dioptres)),
+            DerivedValue::Power { dioptres } => write!(f, "{} D", Dioptres(*dioptres)),
             DerivedValue::SphCyl {
                 sphere,
                 cylinder,
                 axis,
-            } => fmt_sphcyl(*sphere, *cylinder, *axis),
+            } => SphCyl {
+                sphere: *sphere,
+                cylinder: *cylinder,
+                axis: *axis,
+            }
+            .fmt(f),
             DerivedValue::Meridian { dioptres, meridian } => {
-                format!("{} D @ {}", fmt_power(*dioptres), fmt_axis(*meridian))
+                write!(f, "{} D @ {}", Dioptres(*dioptres), Axis(*meridian))
             }
             DerivedValue::Cylinder { dioptres, axis } => {
-                format!("{} x {}", fmt_power(*dioptres), fmt_axis(*axis))
+                write!(f, "{} x {}", Dioptres(*dioptres), Axis(*axis))
             }
             DerivedValue::Distance { metres, from } => {
                 let side = if *metres >= 0.0 { "after" } else { "before" };
                 // Under a centimetre (pupils, cardinal points inside the eye) in
                 // millimetres, so two decimals still carry the value.
                 if metres.abs() < 0.01 {
-                    format!("{:.2} mm {side} {from}", metres.abs() * 1000.0)
+                    write!(f, "{} mm {side} {from}", Fixed2(metres.abs() * 1000.0))
                 } else {
-                    format!("{:.2} cm {side} {from}", metres.abs() * 100.0)
+                    write!(f, "{} cm {side} {from}", Fixed2(metres.abs() * 100.0))
                 }
             }
-            DerivedValue::Infinity => "infinity".into(),
-            DerivedValue::Length { metres } => format!("{:.2} mm", metres * 1000.0),
+            DerivedValue::Infinity => f.write_str("infinity"),
+            DerivedValue::Length { metres } => write!(f, "{} mm", Fixed2(metres * 1000.0)),
             DerivedValue::Prism { dioptres, base } => {
-                format!("{dioptres:.2}Δ {base}").trim_end().to_owned()
+                let text = format!("{}Δ {base}", Fixed2(*dioptres));
+                f.write_str(text.trim_end())
             }
-            DerivedValue::Number { value } => format!("{value:.4}"),
-            DerivedValue::Text { text } => text.to_string(),
+            DerivedValue::Number { value } => write!(f, "{value:.4}"),
+            DerivedValue::Text { text } => f.write_str(text),
         }
     }
 }

@@ -70,7 +70,9 @@ fn hints(a: &Analysis, range: Option<Span>, tooltips: bool) -> Vec<InlayHint> {
         if here.is_empty() {
             continue;
         }
-        let mut parts = Vec::new();
+        // The label is written in place: `short value · short value`.
+        let mut label = String::new();
+        let mut parts = 0;
         for (name, short) in PREFERRED {
             // Per-lens values are keyed `LABEL.image`; the whole system's image is `image`.
             // The whole system's value wins over a per-lens one on the same line.
@@ -83,13 +85,17 @@ fn hints(a: &Analysis, range: Option<Span>, tooltips: bool) -> Vec<InlayHint> {
                 })
             };
             if let Some(d) = exact.or_else(per_lens) {
-                parts.push(format!("{short} {}", d.text()));
+                if parts > 0 {
+                    label.push_str(" · ");
+                }
+                let _ = write!(label, "{short} {}", d.value);
+                parts += 1;
             }
-            if parts.len() == 2 {
+            if parts == 2 {
                 break;
             }
         }
-        if parts.is_empty() {
+        if parts == 0 {
             continue;
         }
         // One string written in place (no string per value, then a join).
@@ -98,7 +104,7 @@ fn hints(a: &Analysis, range: Option<Span>, tooltips: bool) -> Vec<InlayHint> {
             if k > 0 {
                 tooltip.push('\n');
             }
-            let _ = write!(tooltip, "{}: {}  [{}]", d.label, d.text(), d.name);
+            let _ = write!(tooltip, "{}: {}  [{}]", d.label, d.value, d.name);
         }
         // End of the text before any trailing comment, so the hint reads after the values.
         let end = match line.comment {
@@ -112,7 +118,7 @@ fn hints(a: &Analysis, range: Option<Span>, tooltips: bool) -> Vec<InlayHint> {
         };
         out.push(InlayHint {
             offset: end,
-            label: parts.join(" · "),
+            label,
             tooltip,
         });
     }
