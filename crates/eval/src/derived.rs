@@ -185,16 +185,33 @@ fn write_fixed2(out: &mut impl fmt::Write, value: f64, plus: bool) -> fmt::Resul
             write!(out, "{value:.2}")
         };
     }
-    let hundredths = rounded.abs() as u64;
-    // `{:.2}` keeps the sign of a negative value that rounds to zero (`-0.00`).
-    let sign = if value.is_sign_negative() {
-        "-"
-    } else if plus {
-        "+"
-    } else {
-        ""
+    // Digits written backwards into a stack buffer and handed over in one
+    // piece (`write!` with three arguments cost more than the rounding).
+    let hundredths = rounded.abs() as u64; // < 1e9: at most 10 digits
+    let mut buf = [0u8; 16];
+    let mut i = buf.len();
+    let mut push = |b: u8| {
+        i -= 1;
+        buf[i] = b;
     };
-    write!(out, "{sign}{}.{:02}", hundredths / 100, hundredths % 100)
+    push(b'0' + (hundredths % 10) as u8);
+    push(b'0' + (hundredths / 10 % 10) as u8);
+    push(b'.');
+    let mut int = hundredths / 100;
+    loop {
+        push(b'0' + (int % 10) as u8);
+        int /= 10;
+        if int == 0 {
+            break;
+        }
+    }
+    // `{:.2}` keeps the sign of a negative value that rounds to zero (`-0.00`).
+    if value.is_sign_negative() {
+        push(b'-');
+    } else if plus {
+        push(b'+');
+    }
+    out.write_str(std::str::from_utf8(&buf[i..]).map_err(|_| fmt::Error)?)
 }
 
 /// A power as the trade writes it, for `write!`: sign always, two decimals
