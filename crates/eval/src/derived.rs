@@ -4,8 +4,9 @@
 //! A file may carry hundreds of thousands of values, so a value holds no text it
 //! can rebuild: the key is its block id (shared by every value of the block) and
 //! its name, built on demand by [`Derived::key`]; the display text is rendered from
-//! the value by [`Derived::text`]; names, labels and the words inside a value are
-//! `Cow<'static, str>`, borrowed from the program text in nearly every case.
+//! the value by [`Derived::text`]; names and labels are `Cow<'static, str>`,
+//! borrowed from the program text in nearly every case, and the words inside a
+//! value are static or shared. A test bounds `size_of::<Derived>()`.
 
 use parax_syntax::Span;
 use serde::ser::SerializeStruct;
@@ -31,8 +32,9 @@ pub struct Derivation {
     /// The formula with this case's numbers substituted, and the result. Empty
     /// when the evaluation was asked for values only
     /// ([`EvalOptions::derivations`](crate::EvalOptions) false, as `parax check`
-    /// does); every evaluation through [`crate::evaluate`] writes it.
-    pub substituted: String,
+    /// does); every evaluation through [`crate::evaluate`] writes it. A boxed
+    /// `str`, not a `String`: written once, never grown (8 bytes less per value).
+    pub substituted: Box<str>,
     /// Where the method is published (one of the constants of
     /// [`crate::sources`], shared: 8 bytes per value instead of 32).
     pub source: &'static Source,
@@ -75,7 +77,10 @@ pub enum DerivedValue {
         /// Metres, positive to the right (behind the reference).
         metres: f64,
         /// What it is measured from: "L2", "the cornea", "the spectacle plane".
-        from: Cow<'static, str>,
+        /// Shared: the values measured from one lens share its label, and the
+        /// fixed places are each one shared string ([`shared_place`]).
+        #[serde(serialize_with = "serialize_str")]
+        from: Arc<str>,
     },
     /// A point at infinity.
     Infinity,
@@ -90,7 +95,7 @@ pub enum DerivedValue {
         /// Prism dioptres (≥ 0).
         dioptres: f64,
         /// Base direction.
-        base: Cow<'static, str>,
+        base: &'static str,
     },
     /// A pure number (magnification, ratio).
     Number {
@@ -108,8 +113,10 @@ pub enum DerivedValue {
 #[derive(Debug, Clone, PartialEq)]
 pub struct Derived {
     /// The block id, the first part of the key: `eye.right`, `system.bench`.
-    /// Shared by every value of the block.
-    pub block: Arc<str>,
+    /// Shared by every value of the block. An `Arc<String>` rather than an
+    /// `Arc<str>`: a thin pointer, 8 bytes per value instead of 16, for one more
+    /// indirection when the id is read (rarely: keys, block headers).
+    pub block: Arc<String>,
     /// The name part of the key, as an `expect` line writes it.
     pub name: Cow<'static, str>,
     /// Human label.
@@ -133,7 +140,7 @@ impl Derived {
 
     /// True when [`Derived::key`] equals `key` (without building the key).
     pub fn is_key(&self, key: &str) -> bool {
-        key.strip_prefix(&*self.block)
+        key.strip_prefix(self.block.as_str())
             .and_then(|rest| rest.strip_prefix('.'))
             .is_some_and(|name| name == self.name)
     }
@@ -160,6 +167,31 @@ impl Serialize for Derived {
         s.serialize_field("caution", &self.caution)?;
         s.end()
     }
+}
+
+/// Serialize a shared string as a plain string (serde's `rc` feature is not
+/// enabled; this is all it would add here).
+fn serialize_str<S: Serializer>(text: &Arc<str>, serializer: S) -> Result<S::Ok, S::Error> {
+    serializer.serialize_str(text)
+}
+
+/// One shared copy of a fixed place name for [`DerivedValue::Distance::from`],
+/// so the many values measured from it allocate nothing: a handful of places,
+/// each allocated once per thread and kept for the thread's life.
+pub fn shared_place(place: &'static str) -> Arc<str> {
+    thread_local! {
+        static PLACES: std::cell::RefCell<Vec<(&'static str, Arc<str>)>> =
+            const { std::cell::RefCell::new(Vec::new()) };
+    }
+    PLACES.with(|places| {
+        let mut places = places.borrow_mut();
+        if let Some((_, shared)) = places.iter().find(|(p, _)| *p == place) {
+            return Arc::clone(shared);
+        }
+        let shared: Arc<str> = place.into();
+        places.push((place, Arc::clone(&shared)));
+        shared
+    })
 }
 
 /// Format a power like the trade writes it: sign always, two decimals.
@@ -364,6 +396,33 @@ mod tests {
         ] {
             assert_eq!(fmt_axis(axis), text, "axis {axis}");
         }
+    }
+
+    /// The parts of a derived value stay small (the bound on the whole is in
+    /// tests/each.rs): a field added or widened shows here.
+    #[test]
+    fn parts_of_a_derived_value_stay_small() {
+        use std::mem::size_of;
+        assert!(
+            size_of::<super::DerivedValue>() <= 32,
+            "DerivedValue {}",
+            size_of::<super::DerivedValue>()
+        );
+        assert!(
+            size_of::<super::Derivation>() <= 40,
+            "Derivation {}",
+            size_of::<super::Derivation>()
+        );
+    }
+
+    /// A fixed place is one shared string, whoever asks for it.
+    #[test]
+    fn fixed_places_are_shared() {
+        let a = super::shared_place("the cornea");
+        let b = super::shared_place("the cornea");
+        assert!(std::sync::Arc::ptr_eq(&a, &b));
+        assert_eq!(&*a, "the cornea");
+        assert_ne!(&*super::shared_place("the spectacle plane"), "the cornea");
     }
 
     /// Distances under a centimetre are shown in millimetres (exact unit change).

@@ -135,6 +135,8 @@ pub fn evaluate_case_with(case: &Case, options: EvalOptions) -> (Vec<Derived>, V
     let mut derived = Vec::new();
     let mut diags = Vec::new();
     compute::compute(case, options.derivations, &mut derived, &mut diags);
+    // Exact capacity: the values are held as long as the evaluation is.
+    derived.shrink_to_fit();
     // Each block's values are pushed together; index the range of each block id
     // once, so checking `expect` lines costs one look-up per block instead of a
     // scan of every value of the file (quadratic on large files).
@@ -338,7 +340,7 @@ fn block_ranges(derived: &[Derived]) -> std::collections::HashMap<&str, (usize, 
     let mut ranges: std::collections::HashMap<&str, (usize, usize)> =
         std::collections::HashMap::new();
     for (i, d) in derived.iter().enumerate() {
-        let r = ranges.entry(&*d.block).or_insert((i, i + 1));
+        let r = ranges.entry(d.block.as_str()).or_insert((i, i + 1));
         r.1 = i + 1;
     }
     ranges

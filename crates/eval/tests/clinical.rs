@@ -145,7 +145,7 @@ fn decentration_prism_base_out() {
     match get(&ev, "spectacle-lens.left.distance-prism-horizontal") {
         V::Prism { dioptres, base } => {
             close(*dioptres, 1.6, 1e-9);
-            assert_eq!(base, "BO");
+            assert_eq!(*base, "BO");
         }
         other => panic!("{other:?}"),
     }

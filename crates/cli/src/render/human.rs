@@ -103,7 +103,7 @@ pub struct Table<'a> {
     name_w: usize,
     text_w: usize,
     explain: bool,
-    current_block: Option<Arc<str>>,
+    current_block: Option<Arc<String>>,
 }
 
 impl<'a> Table<'a> {
@@ -132,12 +132,12 @@ impl<'a> Table<'a> {
         let parsed = &self.read.parsed;
         let (name_w, text_w) = (self.name_w, self.text_w);
         for d in values {
-            if self.current_block.as_deref() != Some(&*d.block) {
+            if self.current_block.as_deref() != Some(&d.block) {
                 if self.current_block.is_some() {
                     writeln!(out)?;
                 }
                 let (line, _) = parsed.index.line_col(&parsed.source, d.span.start());
-                let block = &*d.block;
+                let block = d.block.as_str();
                 let header = self
                     .read
                     .block_at(d.span.start)

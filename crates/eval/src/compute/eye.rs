@@ -163,7 +163,7 @@ fn refraction(
             FarPoint::Infinity => V::Infinity,
             FarPoint::At { distance_m } => V::Distance {
                 metres: *distance_m,
-                from: from.into(),
+                from: crate::derived::shared_place(from),
             },
         };
         out.push(

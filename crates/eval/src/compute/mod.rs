@@ -43,7 +43,7 @@ pub fn compute_eye(
     derived: &mut Vec<Derived>,
     diags: &mut Vec<Diagnostic>,
 ) {
-    let mut out = Out::new(eye::block_id(e).into(), derivations, derived);
+    let mut out = Out::new(Arc::new(eye::block_id(e)), derivations, derived);
     eye_block(case, visits, e, &mut out, diags);
 }
 
@@ -91,7 +91,7 @@ pub(crate) fn compute_each(
 ) {
     let visits = Visits::new(case);
     for e in &case.eyes {
-        let id: Arc<str> = eye::block_id(e).into();
+        let id = Arc::new(eye::block_id(e));
         let start = buf.len();
         let mut out = Out::new(Arc::clone(&id), derivations, buf);
         eye_block(case, &visits, e, &mut out, diags);
@@ -109,13 +109,13 @@ fn others_each(
     done: &mut BlockDone<'_>,
 ) {
     for s in &case.systems {
-        let id: Arc<str> = system::block_id(s).into();
+        let id = Arc::new(system::block_id(s));
         let start = buf.len();
         system::compute(s, &mut Out::new(Arc::clone(&id), derivations, buf), diags);
         done(&id, &s.expects, buf, start);
     }
     for l in &case.spectacle_lenses {
-        let id: Arc<str> = spectacle::block_id(l).into();
+        let id = Arc::new(spectacle::block_id(l));
         let start = buf.len();
         spectacle::compute(
             case,
@@ -126,7 +126,7 @@ fn others_each(
         done(&id, &l.expects, buf, start);
     }
     for f in &case.frames {
-        let id: Arc<str> = spectacle::frame_id(f).into();
+        let id = Arc::new(spectacle::frame_id(f));
         let start = buf.len();
         spectacle::compute_frame(
             case,
@@ -137,7 +137,7 @@ fn others_each(
         done(&id, &f.expects, buf, start);
     }
     for c in &case.contact_lenses {
-        let id: Arc<str> = contact::block_id(c).into();
+        let id = Arc::new(contact::block_id(c));
         let start = buf.len();
         contact::compute(
             case,
@@ -148,7 +148,7 @@ fn others_each(
         done(&id, &c.expects, buf, start);
     }
     for m in &case.model_eyes {
-        let id: Arc<str> = model_eye::block_id(m).into();
+        let id = Arc::new(model_eye::block_id(m));
         let start = buf.len();
         model_eye::compute(
             case,
@@ -212,13 +212,13 @@ pub(crate) fn sphcyl(rx: &SphCyl) -> DerivedValue {
 /// other caller ([`crate::evaluate`], JSON, hover, `eval --explain`) gets them
 /// written exactly as before.
 pub(crate) struct Out<'a> {
-    block: Arc<str>,
+    block: Arc<String>,
     derivations: bool,
     derived: &'a mut Vec<Derived>,
 }
 
 impl<'a> Out<'a> {
-    fn new(block: Arc<str>, derivations: bool, derived: &'a mut Vec<Derived>) -> Self {
+    fn new(block: Arc<String>, derivations: bool, derived: &'a mut Vec<Derived>) -> Self {
         Out {
             block,
             derivations,
@@ -246,10 +246,19 @@ impl<'a> Out<'a> {
         source: &'static Source,
     ) -> &mut Derived {
         let substituted = if self.derivations {
-            substituted()
+            substituted().into_boxed_str()
         } else {
-            String::new()
+            Box::default()
         };
+        if self.derived.len() == self.derived.capacity() {
+            // Grow by a quarter instead of doubling: a file's values fill one
+            // vector of a few hundred megabytes at most, and doubling leaves up to
+            // half of it empty (530,000 values in room for 1,048,576 on the 5 MB
+            // file). Still geometric, so pushing stays amortized constant time;
+            // large vectors are moved by `realloc`, which remaps their pages.
+            let more = (self.derived.capacity() / 4).max(16);
+            self.derived.reserve_exact(more);
+        }
         self.derived.push(Derived {
             block: Arc::clone(&self.block),
             name: name.into(),

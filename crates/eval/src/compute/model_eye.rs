@@ -137,7 +137,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
                 label,
                 V::Distance {
                     metres: v,
-                    from: "the cornea".into(),
+                    from: crate::derived::shared_place("the cornea"),
                 },
                 span,
                 "cardinal points from the system matrix (n·D/C, n·(D − 1)/C, n'·(1 − A)/C, nodal = principal + (n' − n)/F)",
@@ -156,7 +156,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
                 "entrance pupil (image of the iris by the cornea)",
                 V::Distance {
                     metres: at,
-                    from: "the cornea".into(),
+                    from: crate::derived::shared_place("the cornea"),
                 },
                 span,
                 "iris at the front of the lens traced back through the cornea: L' = L + F at each surface, L ← L'/(1 − (d/n)·L') across each gap",

@@ -63,7 +63,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
                 FarPoint::Infinity => V::Infinity,
                 FarPoint::At { distance_m } => V::Distance {
                     metres: distance_m,
-                    from: from.into(),
+                    from: crate::derived::shared_place(from),
                 },
             };
             out.push(
@@ -121,7 +121,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
             let value = match d {
                 Some(m) => V::Distance {
                     metres: -m,
-                    from: "the spectacle plane".into(),
+                    from: crate::derived::shared_place("the spectacle plane"),
                 },
                 None => V::Infinity,
             };

@@ -22,7 +22,7 @@ fn place(p: ImagePlace, label: &str) -> V {
             after_element_m, ..
         } => V::Distance {
             metres: after_element_m,
-            from: label.to_owned().into(),
+            from: label.into(),
         },
     }
 }
