@@ -4,9 +4,9 @@
 //! A file may carry hundreds of thousands of values, so a value holds no text it
 //! can rebuild: the key is its block id (shared by every value of the block) and
 //! its name, built on demand by [`Derived::key`]; the display text is rendered from
-//! the value by [`Derived::text`]; names and labels are `Cow<'static, str>`,
-//! borrowed from the program text in nearly every case, and the words inside a
-//! value are static or shared. A test bounds `size_of::<Derived>()`.
+//! the value by [`Derived::text`]; names and labels are [`Phrase`]s, borrowed
+//! from the program text in nearly every case, and the words inside a value are
+//! static or shared. A test bounds `size_of::<Derived>()`.
 
 use parax_syntax::Span;
 use serde::ser::SerializeStruct;
@@ -109,6 +109,139 @@ pub enum DerivedValue {
     },
 }
 
+/// A name or label of a derived value: a literal of the program (nearly all of
+/// them) or a text made for one case (a lens label inside a system's value
+/// names), shared. Reads as a `str` (`Deref`, `Display`, comparisons).
+///
+/// Our own type rather than `Cow<'static, str>`: both variants are one pointer
+/// wide after the first (the shared text is a thin `Arc<String>`), so the enum
+/// fits in 16 bytes instead of 24, 16 bytes less per value for name and label
+/// together (a test bounds the size of [`Derived`]).
+#[derive(Clone)]
+pub enum Phrase {
+    /// A literal of the program.
+    Static(&'static str),
+    /// A text made at run time.
+    Shared(Arc<String>),
+}
+
+impl Phrase {
+    /// The text.
+    pub fn as_str(&self) -> &str {
+        match self {
+            Phrase::Static(s) => s,
+            Phrase::Shared(s) => s.as_str(),
+        }
+    }
+}
+
+impl std::ops::Deref for Phrase {
+    type Target = str;
+    fn deref(&self) -> &str {
+        self.as_str()
+    }
+}
+
+impl AsRef<str> for Phrase {
+    fn as_ref(&self) -> &str {
+        self.as_str()
+    }
+}
+
+impl std::borrow::Borrow<str> for Phrase {
+    fn borrow(&self) -> &str {
+        self.as_str()
+    }
+}
+
+impl From<&'static str> for Phrase {
+    fn from(s: &'static str) -> Self {
+        Phrase::Static(s)
+    }
+}
+
+impl From<String> for Phrase {
+    fn from(s: String) -> Self {
+        Phrase::Shared(Arc::new(s))
+    }
+}
+
+/// Written as the text, with width and alignment honoured (`{:<20}`).
+impl std::fmt::Display for Phrase {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        std::fmt::Display::fmt(self.as_str(), f)
+    }
+}
+
+/// Written as the text, as a `str` is (`"name"`).
+impl std::fmt::Debug for Phrase {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        std::fmt::Debug::fmt(self.as_str(), f)
+    }
+}
+
+impl PartialEq for Phrase {
+    fn eq(&self, other: &Phrase) -> bool {
+        self.as_str() == other.as_str()
+    }
+}
+
+impl Eq for Phrase {}
+
+impl PartialEq<str> for Phrase {
+    fn eq(&self, other: &str) -> bool {
+        self.as_str() == other
+    }
+}
+
+impl PartialEq<&str> for Phrase {
+    fn eq(&self, other: &&str) -> bool {
+        self.as_str() == *other
+    }
+}
+
+impl PartialEq<String> for Phrase {
+    fn eq(&self, other: &String) -> bool {
+        self.as_str() == other.as_str()
+    }
+}
+
+impl PartialEq<Phrase> for str {
+    fn eq(&self, other: &Phrase) -> bool {
+        self == other.as_str()
+    }
+}
+
+impl PartialEq<Phrase> for &str {
+    fn eq(&self, other: &Phrase) -> bool {
+        *self == other.as_str()
+    }
+}
+
+impl std::hash::Hash for Phrase {
+    fn hash<H: std::hash::Hasher>(&self, state: &mut H) {
+        self.as_str().hash(state)
+    }
+}
+
+impl PartialOrd for Phrase {
+    fn partial_cmp(&self, other: &Phrase) -> Option<std::cmp::Ordering> {
+        Some(self.cmp(other))
+    }
+}
+
+impl Ord for Phrase {
+    fn cmp(&self, other: &Phrase) -> std::cmp::Ordering {
+        self.as_str().cmp(other.as_str())
+    }
+}
+
+impl Serialize for Phrase {
+    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        serializer.serialize_str(self.as_str())
+    }
+}
+
 /// One derived value.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Derived {
@@ -118,9 +251,9 @@ pub struct Derived {
     /// indirection when the id is read (rarely: keys, block headers).
     pub block: Arc<String>,
     /// The name part of the key, as an `expect` line writes it.
-    pub name: Cow<'static, str>,
+    pub name: Phrase,
     /// Human label.
-    pub label: Cow<'static, str>,
+    pub label: Phrase,
     /// The value.
     pub value: DerivedValue,
     /// The statement (line) the value belongs to.

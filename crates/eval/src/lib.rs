@@ -18,7 +18,7 @@ pub mod sources;
 pub mod units;
 
 pub use compute::slug;
-pub use derived::{Derived, DerivedValue, Difference};
+pub use derived::{Derived, DerivedValue, Difference, Phrase};
 pub use diagnostic::{Diagnostic, Edit, Fix, Severity, GENERAL_CAUTION};
 pub use incremental::{
     evaluate_edit, evaluate_edit_with, evaluate_incremental, evaluate_incremental_with,
@@ -204,7 +204,8 @@ pub fn evaluate_source_streaming(
     options: EvalOptions,
     each: &mut dyn FnMut(&[Derived]),
 ) -> (Parsed, Evaluation) {
-    let read = read_source_streaming(source);
+    // `check` renders no block headers: their places are not kept.
+    let read = read_streaming(source, false);
     let computed = evaluate_case_each(&read.case, options, each);
     let mut diagnostics = read.diagnostics;
     diagnostics.extend(computed);
@@ -276,14 +277,21 @@ impl StreamedSource {
 /// lines once it is read (as [`evaluate_source_streaming`] does), and compute
 /// nothing yet: see [`StreamedSource`].
 pub fn read_source_streaming(source: &str) -> StreamedSource {
+    read_streaming(source, true)
+}
+
+/// [`read_source_streaming`], keeping [`StreamedSource::blocks`] only when `places`.
+fn read_streaming(source: &str, places: bool) -> StreamedSource {
     let mut case = model::Case::default();
     let mut lowered = Vec::new();
     let mut blocks = Vec::new();
     let parsed = parax_syntax::parse_each(source, &mut |p, block| {
-        blocks.push(BlockPlace {
-            span: block.span,
-            header: p.lines[block.header].span,
-        });
+        if places {
+            blocks.push(BlockPlace {
+                span: block.span,
+                header: p.lines[block.header].span,
+            });
+        }
         lower::lower_block(p, block, &mut case, &mut lowered)
     });
     let mut diagnostics: Vec<Diagnostic> = parsed.errors.iter().map(from_syntax).collect();

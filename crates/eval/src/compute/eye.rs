@@ -124,8 +124,8 @@ fn refraction(
     let meridians = rx.principal_meridians();
     for (i, mer) in meridians.iter().enumerate() {
         out.push(
-            format!("meridian-{}", i + 1),
-            format!("principal meridian {}", i + 1),
+            ["meridian-1", "meridian-2"][i],
+            ["principal meridian 1", "principal meridian 2"][i],
             V::Meridian {
                 dioptres: mer.power,
                 meridian: mer.meridian,
@@ -167,8 +167,8 @@ fn refraction(
             },
         };
         out.push(
-            format!("far-point-{}", i + 1),
-            format!("far point, meridian {}", i + 1),
+            ["far-point-1", "far-point-2"][i],
+            ["far point, meridian 1", "far point, meridian 2"][i],
             value,
             span,
             "far point at 1/F from the correcting plane",
@@ -190,8 +190,8 @@ fn refraction(
                 &rx,
                 d,
                 0.0,
-                "corneal-plane",
-                "at the corneal plane",
+                ["corneal-plane", "corneal-plane-rounded"],
+                ["at the corneal plane", "at the corneal plane, to 0.25 D"],
                 span,
                 out,
                 diags,
@@ -232,8 +232,11 @@ fn refraction(
                 &rx,
                 d,
                 fv,
-                "at-frame-vertex",
-                "at the frame's vertex distance",
+                ["at-frame-vertex", "at-frame-vertex-rounded"],
+                [
+                    "at the frame's vertex distance",
+                    "at the frame's vertex distance, to 0.25 D",
+                ],
                 span,
                 out,
                 diags,
@@ -262,8 +265,8 @@ fn vertex_transfer(
     rx: &SphCyl,
     from: f64,
     to: f64,
-    name: &'static str,
-    label: &'static str,
+    [name, name_rounded]: [&'static str; 2],
+    [label, label_rounded]: [&'static str; 2],
     span: parax_syntax::Span,
     out: &mut Out<'_>,
     diags: &mut Vec<Diagnostic>,
@@ -301,8 +304,8 @@ fn vertex_transfer(
     .caution = Some(src::CAUTION_VERTEX);
     let rounded = round_order(&moved, 0.25);
     out.push(
-        format!("{name}-rounded"),
-        format!("{label}, to 0.25 D"),
+        name_rounded,
+        label_rounded,
         sphcyl(&rounded),
         span,
         "sphere and cylinder each rounded to the nearest 0.25 D, the axis to the nearest degree",

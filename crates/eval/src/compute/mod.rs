@@ -13,12 +13,11 @@ mod visits;
 
 pub use visits::Visits;
 
-use crate::derived::{Derivation, Derived, DerivedValue, Source};
+use crate::derived::{Derivation, Derived, DerivedValue, Phrase, Source};
 use crate::diagnostic::Diagnostic;
 use crate::model::{Case, Expect, Eye, Frame, Side};
 use parax_optics::refraction::SphCyl;
 use parax_syntax::Span;
-use std::borrow::Cow;
 use std::sync::Arc;
 
 /// Every derived value and diagnostic of a case; the substituted formulas only
@@ -237,8 +236,8 @@ impl<'a> Out<'a> {
     #[allow(clippy::too_many_arguments)]
     pub(crate) fn push(
         &mut self,
-        name: impl Into<Cow<'static, str>>,
-        label: impl Into<Cow<'static, str>>,
+        name: impl Into<Phrase>,
+        label: impl Into<Phrase>,
         value: DerivedValue,
         span: Span,
         formula: &'static str,

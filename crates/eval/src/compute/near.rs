@@ -67,11 +67,11 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
                 },
             };
             out.push(
-                format!("near-point-{}", i + 1),
-                format!(
-                    "near point without correction, mean amplitude, meridian {}",
-                    i + 1
-                ),
+                ["near-point-1", "near-point-2"][i],
+                [
+                    "near point without correction, mean amplitude, meridian 1",
+                    "near point without correction, mean amplitude, meridian 2",
+                ][i],
                 value,
                 r.span,
                 "near point at 1/(R − A): refraction R of the meridian, mean amplitude A",

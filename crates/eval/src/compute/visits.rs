@@ -125,12 +125,15 @@ pub(super) fn compute(
             src::THIBOS_1997,
         );
         let mut worst: f64 = se;
-        for mer in [180.0, 90.0] {
+        for (mer, name, label) in [
+            (180.0, "anisometropia-180", "anisometropia in meridian 180"),
+            (90.0, "anisometropia-90", "anisometropia in meridian 90"),
+        ] {
             let d = (r.meridian_power(mer) - l.meridian_power(mer)).abs();
             worst = worst.max(d);
             out.push(
-                format!("anisometropia-{}", mer as i64),
-                format!("anisometropia in meridian {}", mer as i64),
+                name,
+                label,
                 V::Power { dioptres: d },
                 span,
                 "|F_right(φ) − F_left(φ)|, F(φ) = S + C·sin²(φ − θ)",
