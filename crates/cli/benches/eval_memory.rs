@@ -21,9 +21,11 @@ use std::time::{Duration, Instant};
 
 const RUNS: usize = 3;
 
-/// The `parax` binary of this build (Cargo builds it for the benchmarks).
+/// The `parax` binary of this build (Cargo builds it for the benchmarks), or
+/// the one named by `PARAX_BENCH_BINARY` (to measure an earlier build beside it).
 fn parax_binary() -> PathBuf {
-    let p = PathBuf::from(env!("CARGO_BIN_EXE_parax"));
+    let p = std::env::var_os("PARAX_BENCH_BINARY")
+        .map_or_else(|| PathBuf::from(env!("CARGO_BIN_EXE_parax")), PathBuf::from);
     assert!(
         p.exists(),
         "the parax binary is missing at {}; build it with `cargo build --release -p parax-cli`",
@@ -73,23 +75,46 @@ fn mib(b: u64) -> f64 {
     b as f64 / (1024.0 * 1024.0)
 }
 
+/// Environment variable naming the folder the writer child writes the files to.
+const WRITE_TO: &str = "PARAX_BENCH_EVALMEM_WRITE_TO";
+
+/// The writer child: the 5 MB file (checked clean in this process) and a tiny one.
+fn write_files(dir: &Path) {
+    let text = corpus::big_file(corpus::BIG_FILE_BYTES);
+    corpus::assert_sample_clean(&[], 1, Some(&text));
+    std::fs::write(dir.join("long-history.parax"), &text).expect("write the 5 MB file");
+    // Invented, tiny: one eye with a refraction.
+    std::fs::write(
+        dir.join("tiny.parax"),
+        "eye right\n  refraction -1.00 / -0.50 x 90\n",
+    )
+    .expect("write the tiny file");
+}
+
 fn main() {
     // `cargo test --benches` passes `--test`: nothing to measure there.
     if std::env::args().any(|a| a == "--list" || a == "--test") {
         return;
     }
+    if let Some(dir) = std::env::var_os(WRITE_TO) {
+        write_files(Path::new(&dir));
+        return;
+    }
     let parax = parax_binary();
     let dir = std::env::temp_dir().join(format!("parax-bench-evalmem-{}", std::process::id()));
     std::fs::create_dir_all(&dir).expect("create the bench folder");
-    let text = corpus::big_file(corpus::BIG_FILE_BYTES);
-    corpus::assert_sample_clean(&[], 1, Some(&text));
+    // The files are made (and checked, which evaluates the 5 MB file) by a child
+    // process: a process spawned from this one starts with this one's peak
+    // resident set as its own (Linux carries it over `exec` when the child
+    // shares or copies the parent's memory), so this process must stay small.
+    let status = Command::new(std::env::current_exe().expect("this bench's path"))
+        .env(WRITE_TO, &dir)
+        .status()
+        .expect("the writer child runs");
+    assert!(status.success(), "writing the files failed: {status}");
     let big = dir.join("long-history.parax");
-    std::fs::write(&big, &text).expect("write the 5 MB file");
-    // Invented, tiny: one eye with a refraction.
     let tiny = dir.join("tiny.parax");
-    std::fs::write(&tiny, "eye right\n  refraction -1.00 / -0.50 x 90\n").expect("write");
-    let n = text.len() as u64;
-    drop(text);
+    let n = std::fs::metadata(&big).expect("the 5 MB file").len();
 
     let commands: [(&str, &[&str]); 4] = [
         ("parax eval (table)", &["eval"]),
