@@ -116,6 +116,23 @@ fn same(text: &str) -> Result<usize, TestCaseError> {
             prop_assert_eq!(&diags, &full.diagnostics);
         }
         prop_assert_eq!(&source.case, &full.case);
+        // A block's lists are stored without spare room.
+        let expects = source
+            .case
+            .eyes
+            .iter()
+            .map(|e| &e.expects)
+            .chain(source.case.systems.iter().map(|s| &s.expects))
+            .chain(source.case.frames.iter().map(|f| &f.expects));
+        for list in expects {
+            prop_assert_eq!(list.capacity(), list.len());
+            for x in list {
+                prop_assert_eq!(x.tokens.capacity(), x.tokens.len());
+            }
+        }
+        for s in &source.case.systems {
+            prop_assert_eq!(s.elements.capacity(), s.elements.len());
+        }
         let places: Vec<BlockPlace> = parsed
             .blocks
             .iter()

@@ -249,28 +249,22 @@ impl<'a> Out<'a> {
         } else {
             Box::default()
         };
-        if self.derived.len() == self.derived.capacity() {
-            // Grow by a quarter instead of doubling: a file's values fill one
-            // vector of a few hundred megabytes at most, and doubling leaves up to
-            // half of it empty (530,000 values in room for 1,048,576 on the 5 MB
-            // file). Still geometric, so pushing stays amortized constant time;
-            // large vectors are moved by `realloc`, which remaps their pages.
-            let more = (self.derived.capacity() / 4).max(16);
-            self.derived.reserve_exact(more);
-        }
-        self.derived.push(Derived {
-            block: Arc::clone(&self.block),
-            name: name.into(),
-            label: label.into(),
-            value,
-            span,
-            derivation: Derivation {
-                formula,
-                substituted,
-                source,
+        crate::push_growing_slowly(
+            self.derived,
+            Derived {
+                block: Arc::clone(&self.block),
+                name: name.into(),
+                label: label.into(),
+                value,
+                span,
+                derivation: Derivation {
+                    formula,
+                    substituted,
+                    source,
+                },
+                caution: None,
             },
-            caution: None,
-        });
+        );
         self.derived.last_mut().expect("just pushed")
     }
 }
