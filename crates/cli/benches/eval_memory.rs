@@ -40,6 +40,8 @@ fn parax_binary() -> PathBuf {
 /// `wait4` rather than `getrusage(RUSAGE_CHILDREN)`: the latter is the maximum
 /// over every child waited for so far, so a smaller run after a larger one would
 /// show the larger one's peak.
+// The child is waited for by `wait4`, which clippy does not see.
+#[allow(clippy::zombie_processes)]
 fn peak_rss(parax: &Path, args: &[&str], file: &Path) -> (u64, Duration) {
     let start = Instant::now();
     let child = Command::new(parax)

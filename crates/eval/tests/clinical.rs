@@ -120,7 +120,7 @@ fn reading_point_prism_and_imbalance() {
         get(&ev, "spectacle-lens.right.reading-prism-vertical"),
         &V::Prism {
             dioptres: 3.0,
-            base: "BD".into()
+            base: "BD"
         }
     );
     close(

@@ -145,14 +145,14 @@ fn prisms(case: &Case, l: &SpectacleLens) -> Prisms {
 fn vertical(p: &Prism) -> V {
     V::Prism {
         dioptres: p.base_up.abs(),
-        base: if p.base_up >= 0.0 { "BU" } else { "BD" }.into(),
+        base: if p.base_up >= 0.0 { "BU" } else { "BD" },
     }
 }
 
 fn horizontal(p: f64) -> V {
     V::Prism {
         dioptres: p.abs(),
-        base: if p >= 0.0 { "BI" } else { "BO" }.into(),
+        base: if p >= 0.0 { "BI" } else { "BO" },
     }
 }
 
@@ -865,7 +865,7 @@ pub(super) fn compute_frame(
             "vertical prism imbalance at the reading point",
             V::Prism {
                 dioptres: imb,
-                base: "".into(),
+                base: "",
             },
             span,
             "|P_v(right) − P_v(left)| with base up positive",
@@ -1004,7 +1004,7 @@ fn mounted_pair(
         "vertical prism imbalance of the received pair at the pupils",
         V::Prism {
             dioptres: vertical,
-            base: "".into(),
+            base: "",
         },
         span,
         "|P_v(right) − P_v(left)|, P = −F_measured·c plus measured − ordered prism",
