@@ -24,20 +24,52 @@ pub struct Source {
     pub tag: &'static str,
 }
 
-/// How a value was derived.
-#[derive(Debug, Clone, PartialEq, Serialize)]
-pub struct Derivation {
+/// A published method: a formula and where it is published. Each is a constant
+/// of the program, so a value points to its method (8 bytes) instead of holding
+/// the formula and the source (24).
+#[derive(Debug, PartialEq, Eq)]
+pub struct Method {
     /// The formula in symbols.
     pub formula: &'static str,
+    /// Where the method is published (one of the constants of [`crate::sources`]).
+    pub source: &'static Source,
+}
+
+/// How a value was derived.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Derivation {
+    /// The formula and its published source, shared by every value it derives.
+    pub method: &'static Method,
     /// The formula with this case's numbers substituted, and the result. Empty
     /// when the evaluation was asked for values only
     /// ([`EvalOptions::derivations`](crate::EvalOptions) false, as `parax check`
     /// does); every evaluation through [`crate::evaluate`] writes it. A boxed
     /// `str`, not a `String`: written once, never grown (8 bytes less per value).
     pub substituted: Box<str>,
-    /// Where the method is published (one of the constants of
-    /// [`crate::sources`], shared: 8 bytes per value instead of 32).
-    pub source: &'static Source,
+}
+
+impl Derivation {
+    /// The formula in symbols.
+    pub fn formula(&self) -> &'static str {
+        self.method.formula
+    }
+
+    /// Where the method is published.
+    pub fn source(&self) -> &'static Source {
+        self.method.source
+    }
+}
+
+/// The JSON shape is the one it had when formula and source were stored
+/// fields: `formula`, `substituted`, `source`, in that order.
+impl Serialize for Derivation {
+    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        let mut s = serializer.serialize_struct("Derivation", 3)?;
+        s.serialize_field("formula", self.method.formula)?;
+        s.serialize_field("substituted", &self.substituted)?;
+        s.serialize_field("source", self.method.source)?;
+        s.end()
+    }
 }
 
 /// The value itself. Numbers are in base units: dioptres, metres, degrees.
@@ -542,7 +574,7 @@ mod tests {
             size_of::<super::DerivedValue>()
         );
         assert!(
-            size_of::<super::Derivation>() <= 40,
+            size_of::<super::Derivation>() <= 24,
             "Derivation {}",
             size_of::<super::Derivation>()
         );

@@ -157,14 +157,15 @@ impl<'a> Table<'a> {
                 writeln!(
                     out,
                     "  {:<name_w$}    formula: {}",
-                    "", d.derivation.formula
+                    "",
+                    d.derivation.formula()
                 )?;
                 writeln!(
                     out,
                     "  {:<name_w$}    numbers: {}",
                     "", d.derivation.substituted
                 )?;
-                let s = d.derivation.source;
+                let s = d.derivation.source();
                 writeln!(
                     out,
                     "  {:<name_w$}    source:  {} [{}]",

@@ -61,10 +61,10 @@ pub fn derived(parsed: &Parsed, d: &Derived) -> Value {
         "text": d.text(),
         "range": range(parsed, d.span),
         "derivation": {
-            "formula": d.derivation.formula,
+            "formula": d.derivation.formula(),
             "substituted": d.derivation.substituted,
-            "source": d.derivation.source.citation,
-            "tag": d.derivation.source.tag,
+            "source": d.derivation.source().citation,
+            "tag": d.derivation.source().tag,
         },
         "caution": d.caution,
     })

@@ -13,7 +13,7 @@ mod visits;
 
 pub use visits::Visits;
 
-use crate::derived::{Derivation, Derived, DerivedValue, Phrase, Source};
+use crate::derived::{Derivation, Derived, DerivedValue, Method, Phrase};
 use crate::diagnostic::Diagnostic;
 use crate::model::{Case, Expect, Eye, Frame, Side};
 use parax_optics::refraction::SphCyl;
@@ -240,9 +240,8 @@ impl<'a> Out<'a> {
         label: impl Into<Phrase>,
         value: DerivedValue,
         span: Span,
-        formula: &'static str,
+        method: &'static Method,
         substituted: impl FnOnce() -> String,
-        source: &'static Source,
     ) -> &mut Derived {
         let substituted = if self.derivations {
             substituted().into_boxed_str()
@@ -258,9 +257,8 @@ impl<'a> Out<'a> {
                 value,
                 span,
                 derivation: Derivation {
-                    formula,
+                    method,
                     substituted,
-                    source,
                 },
                 caution: None,
             },
