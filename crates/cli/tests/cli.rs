@@ -254,3 +254,71 @@ fn human_output_ends_with_the_caution_unless_quiet() {
     assert_eq!(code(&o), 1);
     assert_eq!(last_line(&stdout(&o)), caution);
 }
+
+/// `parax eval` computes and writes the values block by block; its JSON lists
+/// exactly the values of the library's full evaluation (`evaluate_source`), in
+/// the same order, with the same diagnostics and exit status: on every fixture
+/// (valid and with mistakes), on the examples and on a file whose blocks share
+/// an id (invented data, read from stdin).
+#[test]
+fn eval_json_lists_the_full_evaluation_in_order() {
+    let mut inputs: Vec<(String, String)> = Vec::new();
+    for dir in ["tests/fixtures/parse/valid", "tests/fixtures/parse/invalid"] {
+        let mut paths: Vec<_> = std::fs::read_dir(PathBuf::from(ROOT).join(dir))
+            .expect("fixture folder")
+            .map(|e| e.expect("entry").path())
+            .filter(|p| p.extension().is_some_and(|x| x == "parax"))
+            .collect();
+        paths.sort();
+        for p in paths {
+            let rel = format!("{dir}/{}", p.file_name().unwrap().to_string_lossy());
+            inputs.push((rel, std::fs::read_to_string(&p).expect("fixture")));
+        }
+    }
+    for rel in EXAMPLES
+        .iter()
+        .chain(&["crates/cli/tests/data/mistakes.parax"])
+    {
+        let text = std::fs::read_to_string(PathBuf::from(ROOT).join(rel)).expect("file");
+        inputs.push((rel.to_string(), text));
+    }
+    let dup =
+        "eye right\n  refraction -1.00 / -0.50 x 90\n  expect spherical-equivalent -1.25 D\n\n\
+               eye left\n  refraction +1.00\n\n\
+               eye right\n  refraction -2.00\n  expect spherical-equivalent -2.00 D\n";
+    inputs.push(("-".to_owned(), dup.to_owned()));
+    for (arg, text) in &inputs {
+        let o = if arg == "-" {
+            parax_stdin(&["eval", "--format", "json", "-"], Some(text))
+        } else {
+            parax(&["eval", "--format", "json", arg])
+        };
+        let (_, ev) = parax_eval::evaluate_source(text);
+        assert_eq!(code(&o), i32::from(ev.has_errors()), "{arg}: exit status");
+        let v: serde_json::Value = serde_json::from_slice(&o.stdout).expect("eval prints JSON");
+        let got: Vec<(String, String, String)> = v["derived"]
+            .as_array()
+            .expect("a derived list")
+            .iter()
+            .map(|d| {
+                let s = |k: &str| d[k].as_str().unwrap_or_default().to_owned();
+                let sub = d["derivation"]["substituted"].as_str().unwrap_or_default();
+                (s("key"), s("text"), sub.to_owned())
+            })
+            .collect();
+        let want: Vec<(String, String, String)> = ev
+            .derived
+            .iter()
+            .map(|d| (d.key(), d.text(), d.derivation.substituted.to_string()))
+            .collect();
+        assert_eq!(got, want, "{arg}: values");
+        let codes: Vec<&str> = v["diagnostics"]
+            .as_array()
+            .expect("a diagnostics list")
+            .iter()
+            .map(|d| d["code"].as_str().expect("a code"))
+            .collect();
+        let want: Vec<&str> = ev.diagnostics.iter().map(|d| d.code).collect();
+        assert_eq!(codes, want, "{arg}: diagnostics");
+    }
+}

@@ -4,8 +4,9 @@
 //! A file may carry hundreds of thousands of values, so a value holds no text it
 //! can rebuild: the key is its block id (shared by every value of the block) and
 //! its name, built on demand by [`Derived::key`]; the display text is rendered from
-//! the value by [`Derived::text`]; names, labels and the words inside a value are
-//! `Cow<'static, str>`, borrowed from the program text in nearly every case.
+//! the value by [`Derived::text`]; names and labels are [`Phrase`]s, borrowed
+//! from the program text in nearly every case, and the words inside a value are
+//! static or shared. A test bounds `size_of::<Derived>()`.
 
 use parax_syntax::Span;
 use serde::ser::SerializeStruct;
@@ -24,19 +25,52 @@ pub struct Source {
     pub tag: &'static str,
 }
 
-/// How a value was derived.
-#[derive(Debug, Clone, PartialEq, Serialize)]
-pub struct Derivation {
+/// A published method: a formula and where it is published. Each is a constant
+/// of the program, so a value points to its method (8 bytes) instead of holding
+/// the formula and the source (24).
+#[derive(Debug, PartialEq, Eq)]
+pub struct Method {
     /// The formula in symbols.
     pub formula: &'static str,
+    /// Where the method is published (one of the constants of [`crate::sources`]).
+    pub source: &'static Source,
+}
+
+/// How a value was derived.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Derivation {
+    /// The formula and its published source, shared by every value it derives.
+    pub method: &'static Method,
     /// The formula with this case's numbers substituted, and the result. Empty
     /// when the evaluation was asked for values only
     /// ([`EvalOptions::derivations`](crate::EvalOptions) false, as `parax check`
-    /// does); every evaluation through [`crate::evaluate`] writes it.
-    pub substituted: String,
-    /// Where the method is published (one of the constants of
-    /// [`crate::sources`], shared: 8 bytes per value instead of 32).
-    pub source: &'static Source,
+    /// does); every evaluation through [`crate::evaluate`] writes it. A boxed
+    /// `str`, not a `String`: written once, never grown (8 bytes less per value).
+    pub substituted: Box<str>,
+}
+
+impl Derivation {
+    /// The formula in symbols.
+    pub fn formula(&self) -> &'static str {
+        self.method.formula
+    }
+
+    /// Where the method is published.
+    pub fn source(&self) -> &'static Source {
+        self.method.source
+    }
+}
+
+/// The JSON shape is the one it had when formula and source were stored
+/// fields: `formula`, `substituted`, `source`, in that order.
+impl Serialize for Derivation {
+    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        let mut s = serializer.serialize_struct("Derivation", 3)?;
+        s.serialize_field("formula", self.method.formula)?;
+        s.serialize_field("substituted", &self.substituted)?;
+        s.serialize_field("source", self.method.source)?;
+        s.end()
+    }
 }
 
 /// The value itself. Numbers are in base units: dioptres, metres, degrees.
@@ -76,7 +110,10 @@ pub enum DerivedValue {
         /// Metres, positive to the right (behind the reference).
         metres: f64,
         /// What it is measured from: "L2", "the cornea", "the spectacle plane".
-        from: Cow<'static, str>,
+        /// Shared: the values measured from one lens share its label, and the
+        /// fixed places are each one shared string ([`shared_place`]).
+        #[serde(serialize_with = "serialize_str")]
+        from: Arc<str>,
     },
     /// A point at infinity.
     Infinity,
@@ -91,7 +128,7 @@ pub enum DerivedValue {
         /// Prism dioptres (≥ 0).
         dioptres: f64,
         /// Base direction.
-        base: Cow<'static, str>,
+        base: &'static str,
     },
     /// A pure number (magnification, ratio).
     Number {
@@ -105,16 +142,151 @@ pub enum DerivedValue {
     },
 }
 
+/// A name or label of a derived value: a literal of the program (nearly all of
+/// them) or a text made for one case (a lens label inside a system's value
+/// names), shared. Reads as a `str` (`Deref`, `Display`, comparisons).
+///
+/// Our own type rather than `Cow<'static, str>`: both variants are one pointer
+/// wide after the first (the shared text is a thin `Arc<String>`), so the enum
+/// fits in 16 bytes instead of 24, 16 bytes less per value for name and label
+/// together (a test bounds the size of [`Derived`]).
+#[derive(Clone)]
+pub enum Phrase {
+    /// A literal of the program.
+    Static(&'static str),
+    /// A text made at run time.
+    Shared(Arc<String>),
+}
+
+impl Phrase {
+    /// The text.
+    pub fn as_str(&self) -> &str {
+        match self {
+            Phrase::Static(s) => s,
+            Phrase::Shared(s) => s.as_str(),
+        }
+    }
+}
+
+impl std::ops::Deref for Phrase {
+    type Target = str;
+    fn deref(&self) -> &str {
+        self.as_str()
+    }
+}
+
+impl AsRef<str> for Phrase {
+    fn as_ref(&self) -> &str {
+        self.as_str()
+    }
+}
+
+impl std::borrow::Borrow<str> for Phrase {
+    fn borrow(&self) -> &str {
+        self.as_str()
+    }
+}
+
+impl From<&'static str> for Phrase {
+    fn from(s: &'static str) -> Self {
+        Phrase::Static(s)
+    }
+}
+
+impl From<String> for Phrase {
+    fn from(s: String) -> Self {
+        Phrase::Shared(Arc::new(s))
+    }
+}
+
+/// Written as the text, with width and alignment honoured (`{:<20}`).
+impl std::fmt::Display for Phrase {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        std::fmt::Display::fmt(self.as_str(), f)
+    }
+}
+
+/// Written as the text, as a `str` is (`"name"`).
+impl std::fmt::Debug for Phrase {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        std::fmt::Debug::fmt(self.as_str(), f)
+    }
+}
+
+impl PartialEq for Phrase {
+    fn eq(&self, other: &Phrase) -> bool {
+        self.as_str() == other.as_str()
+    }
+}
+
+impl Eq for Phrase {}
+
+impl PartialEq<str> for Phrase {
+    fn eq(&self, other: &str) -> bool {
+        self.as_str() == other
+    }
+}
+
+impl PartialEq<&str> for Phrase {
+    fn eq(&self, other: &&str) -> bool {
+        self.as_str() == *other
+    }
+}
+
+impl PartialEq<String> for Phrase {
+    fn eq(&self, other: &String) -> bool {
+        self.as_str() == other.as_str()
+    }
+}
+
+impl PartialEq<Phrase> for str {
+    fn eq(&self, other: &Phrase) -> bool {
+        self == other.as_str()
+    }
+}
+
+impl PartialEq<Phrase> for &str {
+    fn eq(&self, other: &Phrase) -> bool {
+        *self == other.as_str()
+    }
+}
+
+impl std::hash::Hash for Phrase {
+    fn hash<H: std::hash::Hasher>(&self, state: &mut H) {
+        self.as_str().hash(state)
+    }
+}
+
+impl PartialOrd for Phrase {
+    fn partial_cmp(&self, other: &Phrase) -> Option<std::cmp::Ordering> {
+        Some(self.cmp(other))
+    }
+}
+
+impl Ord for Phrase {
+    fn cmp(&self, other: &Phrase) -> std::cmp::Ordering {
+        self.as_str().cmp(other.as_str())
+    }
+}
+
+impl Serialize for Phrase {
+    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        serializer.serialize_str(self.as_str())
+    }
+}
+
 /// One derived value.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Derived {
     /// The block id, the first part of the key: `eye.right`, `system.bench`.
-    /// Shared by every value of the block.
-    pub block: Arc<str>,
+    /// Shared by every value of the block. An `Arc<String>` rather than an
+    /// `Arc<str>`: a thin pointer, 8 bytes per value instead of 16, for one more
+    /// indirection when the id is read (rarely: keys, block headers).
+    pub block: Arc<String>,
     /// The name part of the key, as an `expect` line writes it.
-    pub name: Cow<'static, str>,
+    pub name: Phrase,
     /// Human label.
-    pub label: Cow<'static, str>,
+    pub label: Phrase,
     /// The value.
     pub value: DerivedValue,
     /// The statement (line) the value belongs to.
@@ -134,7 +306,7 @@ impl Derived {
 
     /// True when [`Derived::key`] equals `key` (without building the key).
     pub fn is_key(&self, key: &str) -> bool {
-        key.strip_prefix(&*self.block)
+        key.strip_prefix(self.block.as_str())
             .and_then(|rest| rest.strip_prefix('.'))
             .is_some_and(|name| name == self.name)
     }
@@ -274,6 +446,31 @@ impl fmt::Display for SphCyl {
             Axis(self.axis)
         )
     }
+}
+
+/// Serialize a shared string as a plain string (serde's `rc` feature is not
+/// enabled; this is all it would add here).
+fn serialize_str<S: Serializer>(text: &Arc<str>, serializer: S) -> Result<S::Ok, S::Error> {
+    serializer.serialize_str(text)
+}
+
+/// One shared copy of a fixed place name for [`DerivedValue::Distance::from`],
+/// so the many values measured from it allocate nothing: a handful of places,
+/// each allocated once per thread and kept for the thread's life.
+pub fn shared_place(place: &'static str) -> Arc<str> {
+    thread_local! {
+        static PLACES: std::cell::RefCell<Vec<(&'static str, Arc<str>)>> =
+            const { std::cell::RefCell::new(Vec::new()) };
+    }
+    PLACES.with(|places| {
+        let mut places = places.borrow_mut();
+        if let Some((_, shared)) = places.iter().find(|(p, _)| *p == place) {
+            return Arc::clone(shared);
+        }
+        let shared: Arc<str> = place.into();
+        places.push((place, Arc::clone(&shared)));
+        shared
+    })
 }
 
 /// Format a power like the trade writes it: sign always, two decimals.
@@ -479,6 +676,33 @@ mod tests {
         ] {
             assert_eq!(fmt_axis(axis), text, "axis {axis}");
         }
+    }
+
+    /// The parts of a derived value stay small (the bound on the whole is in
+    /// tests/each.rs): a field added or widened shows here.
+    #[test]
+    fn parts_of_a_derived_value_stay_small() {
+        use std::mem::size_of;
+        assert!(
+            size_of::<super::DerivedValue>() <= 32,
+            "DerivedValue {}",
+            size_of::<super::DerivedValue>()
+        );
+        assert!(
+            size_of::<super::Derivation>() <= 24,
+            "Derivation {}",
+            size_of::<super::Derivation>()
+        );
+    }
+
+    /// A fixed place is one shared string, whoever asks for it.
+    #[test]
+    fn fixed_places_are_shared() {
+        let a = super::shared_place("the cornea");
+        let b = super::shared_place("the cornea");
+        assert!(std::sync::Arc::ptr_eq(&a, &b));
+        assert_eq!(&*a, "the cornea");
+        assert_ne!(&*super::shared_place("the spectacle plane"), "the cornea");
     }
 
     /// Distances under a centimetre are shown in millimetres (exact unit change).

@@ -132,7 +132,7 @@ pub fn check(block: &str, expects: &[Expect], derived: &[Derived], diags: &mut V
         let Some(d) = derived.iter().find(|d| d.is_key(&key)) else {
             let mine: Vec<&str> = derived
                 .iter()
-                .filter(|d| &*d.block == block)
+                .filter(|d| d.block.as_str() == block)
                 .map(|d| &*d.name)
                 .collect();
             let per_lens = e.name.contains('.')

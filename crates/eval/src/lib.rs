@@ -18,7 +18,7 @@ pub mod sources;
 pub mod units;
 
 pub use compute::slug;
-pub use derived::{Derived, DerivedValue, Difference};
+pub use derived::{Derived, DerivedValue, Difference, Phrase};
 pub use diagnostic::{Diagnostic, Edit, Fix, Severity, GENERAL_CAUTION};
 pub use incremental::{
     evaluate_edit, evaluate_edit_with, evaluate_incremental, evaluate_incremental_with,
@@ -135,6 +135,8 @@ pub fn evaluate_case_with(case: &Case, options: EvalOptions) -> (Vec<Derived>, V
     let mut derived = Vec::new();
     let mut diags = Vec::new();
     compute::compute(case, options.derivations, &mut derived, &mut diags);
+    // Exact capacity: the values are held as long as the evaluation is.
+    derived.shrink_to_fit();
     // Each block's values are pushed together; index the range of each block id
     // once, so checking `expect` lines costs one look-up per block instead of a
     // scan of every value of the file (quadratic on large files).
@@ -202,23 +204,106 @@ pub fn evaluate_source_streaming(
     options: EvalOptions,
     each: &mut dyn FnMut(&[Derived]),
 ) -> (Parsed, Evaluation) {
+    // `check` renders no block headers: their places are not kept.
+    let read = read_streaming(source, false);
+    let computed = evaluate_case_each(&read.case, options, each);
+    let mut diagnostics = read.diagnostics;
+    diagnostics.extend(computed);
+    diagnostics.sort_by_key(|d| (d.span.start, d.severity));
+    let evaluation = Evaluation {
+        case: read.case,
+        derived: Vec::new(),
+        diagnostics,
+        memo: Default::default(),
+    };
+    (read.parsed, evaluation)
+}
+
+/// Where one top-level block of a file read by [`read_source_streaming`] lies
+/// (its lines are gone by then).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct BlockPlace {
+    /// From the header's start to the end of the block's last line
+    /// ([`parax_syntax::Block::span`]).
+    pub span: parax_syntax::Span,
+    /// The header line ([`parax_syntax::Line::span`] of the block's first line).
+    pub header: parax_syntax::Span,
+}
+
+/// A source read block by block into the case model, before any value is
+/// computed ([`read_source_streaming`]). Its values are then computed as often
+/// as wanted by [`StreamedSource::evaluate_each`], one block at a time, with the
+/// source and line index at hand to render them as they come (`parax eval`).
+#[derive(Debug)]
+pub struct StreamedSource {
+    /// The source, the line index and the syntax errors; no lines, no blocks.
+    pub parsed: Parsed,
+    /// The facts read from the file.
+    pub case: Case,
+    /// Where each top-level block lies, in file order.
+    pub blocks: Vec<BlockPlace>,
+    /// Syntax and notation diagnostics found while reading, unsorted.
+    diagnostics: Vec<Diagnostic>,
+}
+
+impl StreamedSource {
+    /// Compute every value and hand them to `each` block by block, as
+    /// [`evaluate_case_each`] does; returns every diagnostic of the file (reading,
+    /// computation, `expect` lines) in the order of [`Evaluation::diagnostics`].
+    /// The values and diagnostics are those of [`evaluate_source_streaming`].
+    pub fn evaluate_each(
+        &self,
+        options: EvalOptions,
+        each: &mut dyn FnMut(&[Derived]),
+    ) -> Vec<Diagnostic> {
+        let computed = evaluate_case_each(&self.case, options, each);
+        let mut diagnostics = Vec::with_capacity(self.diagnostics.len() + computed.len());
+        diagnostics.extend(self.diagnostics.iter().cloned());
+        diagnostics.extend(computed);
+        diagnostics.sort_by_key(|d| (d.span.start, d.severity));
+        diagnostics
+    }
+
+    /// The block whose span holds byte offset `at` (both ends included).
+    pub fn block_at(&self, at: u32) -> Option<&BlockPlace> {
+        // Blocks are in file order and do not overlap: the first one that ends
+        // at or after `at` is the only candidate.
+        let i = self.blocks.partition_point(|b| b.span.end < at);
+        self.blocks.get(i).filter(|b| b.span.start <= at)
+    }
+}
+
+/// Read source text into the case model block by block, dropping each block's
+/// lines once it is read (as [`evaluate_source_streaming`] does), and compute
+/// nothing yet: see [`StreamedSource`].
+pub fn read_source_streaming(source: &str) -> StreamedSource {
+    read_streaming(source, true)
+}
+
+/// [`read_source_streaming`], keeping [`StreamedSource::blocks`] only when `places`.
+fn read_streaming(source: &str, places: bool) -> StreamedSource {
     let mut case = model::Case::default();
     let mut lowered = Vec::new();
+    let mut blocks = Vec::new();
     let parsed = parax_syntax::parse_each(source, &mut |p, block| {
+        if places {
+            blocks.push(BlockPlace {
+                span: block.span,
+                header: p.lines[block.header].span,
+            });
+        }
         lower::lower_block(p, block, &mut case, &mut lowered)
     });
     let mut diagnostics: Vec<Diagnostic> = parsed.errors.iter().map(from_syntax).collect();
     diagnostics.append(&mut lowered);
     drop(lowered);
-    diagnostics.extend(evaluate_case_each(&case, options, each));
-    diagnostics.sort_by_key(|d| (d.span.start, d.severity));
-    let evaluation = Evaluation {
+    blocks.shrink_to_fit();
+    StreamedSource {
+        parsed,
         case,
-        derived: Vec::new(),
+        blocks,
         diagnostics,
-        memo: Default::default(),
-    };
-    (parsed, evaluation)
+    }
 }
 
 /// [`evaluate_case_with`] handing the values to `each` block by block instead of
@@ -263,7 +348,7 @@ fn block_ranges(derived: &[Derived]) -> std::collections::HashMap<&str, (usize, 
     let mut ranges: std::collections::HashMap<&str, (usize, usize)> =
         std::collections::HashMap::new();
     for (i, d) in derived.iter().enumerate() {
-        let r = ranges.entry(&*d.block).or_insert((i, i + 1));
+        let r = ranges.entry(d.block.as_str()).or_insert((i, i + 1));
         r.1 = i + 1;
     }
     ranges
@@ -294,6 +379,18 @@ fn check_others(case: &Case, derived: &[Derived], diags: &mut Vec<Diagnostic>) {
         let id = compute::model_eye_block_id(m);
         expect::check(&id, &m.expects, of(&id), diags);
     }
+}
+
+/// Push `item`, growing a full `list` by a quarter instead of doubling it. For
+/// the lists that grow with the size of a file (its values, its eye blocks): a
+/// doubled vector may be half empty (530,000 values in room for 1,048,576 on
+/// the 5 MB benchmark file). Still geometric, so pushing stays amortized
+/// constant time; large vectors are moved by `realloc`, which remaps pages.
+pub(crate) fn push_growing_slowly<T>(list: &mut Vec<T>, item: T) {
+    if list.len() == list.capacity() {
+        list.reserve_exact((list.capacity() / 4).max(4));
+    }
+    list.push(item);
 }
 
 fn from_syntax(e: &parax_syntax::SyntaxError) -> Diagnostic {

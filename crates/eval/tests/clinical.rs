@@ -120,7 +120,7 @@ fn reading_point_prism_and_imbalance() {
         get(&ev, "spectacle-lens.right.reading-prism-vertical"),
         &V::Prism {
             dioptres: 3.0,
-            base: "BD".into()
+            base: "BD"
         }
     );
     close(
@@ -145,7 +145,7 @@ fn decentration_prism_base_out() {
     match get(&ev, "spectacle-lens.left.distance-prism-horizontal") {
         V::Prism { dioptres, base } => {
             close(*dioptres, 1.6, 1e-9);
-            assert_eq!(base, "BO");
+            assert_eq!(*base, "BO");
         }
         other => panic!("{other:?}"),
     }

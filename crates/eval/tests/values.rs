@@ -153,7 +153,7 @@ fn two_lens_system_by_vergence_and_matrices() {
     match get(&ev, "system.check.image") {
         V::Distance { metres, from } => {
             close(*metres, 0.159091, 1e-6);
-            assert_eq!(from, "L2");
+            assert_eq!(&**from, "L2");
         }
         v => panic!("{v:?}"),
     }

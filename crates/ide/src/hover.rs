@@ -121,10 +121,10 @@ fn derivation_md(d: &parax_eval::Derived) -> String {
         d.label,
         d.text(),
         d.name,
-        d.derivation.formula,
+        d.derivation.formula(),
         d.derivation.substituted,
-        d.derivation.source.citation,
-        d.derivation.source.tag
+        d.derivation.source().citation,
+        d.derivation.source().tag
     );
     if let Some(c) = d.caution {
         s.push_str(&format!("- *caution:* {c}\n"));

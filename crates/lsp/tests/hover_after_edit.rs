@@ -17,7 +17,7 @@ fn substituted_on(text: &str, line: usize) -> Vec<String> {
         .derived
         .iter()
         .filter(|d| span.start <= d.span.start && d.span.start <= span.end)
-        .map(|d| d.derivation.substituted.clone())
+        .map(|d| d.derivation.substituted.to_string())
         .collect();
     assert!(!found.is_empty() && found.iter().all(|s| !s.is_empty()));
     found

@@ -1,9 +1,10 @@
 //! Output for people: each diagnostic with its position, the source line and a
 //! caret under the span, then hint, fix and caution; derived values as a table.
 
-use parax_eval::{Derived, Diagnostic, GENERAL_CAUTION};
+use parax_eval::{Derived, Diagnostic, StreamedSource, GENERAL_CAUTION};
 use parax_syntax::Parsed;
 use std::fmt::Write;
+use std::sync::Arc;
 
 /// The closing caution line.
 pub fn caution_line() -> String {
@@ -74,72 +75,107 @@ pub fn summary(files: usize, [e, w, i]: [usize; 3], expects: usize) -> String {
     )
 }
 
-/// The derived values of one file as a table grouped by block.
-pub fn derived_table(parsed: &Parsed, derived: &[Derived], explain: bool) -> String {
-    let mut out = String::new();
-    let mut current_block: Option<&str> = None;
-    let name_w = derived
-        .iter()
-        .map(|d| d.name.chars().count())
-        .max()
-        .unwrap_or(0)
-        .min(34);
-    let text_w = derived
-        .iter()
-        .map(|d| d.text().chars().count())
-        .max()
-        .unwrap_or(0)
-        .min(30);
-    for d in derived {
-        let block = &*d.block;
-        if current_block != Some(block) {
-            if current_block.is_some() {
-                out.push('\n');
-            }
-            let (line, _) = parsed.index.line_col(&parsed.source, d.span.start());
-            let header = parsed
-                .blocks
-                .iter()
-                .find(|b| b.span.start <= d.span.start && d.span.start <= b.span.end)
-                .map(|b| {
-                    parsed
-                        .text(parsed.lines[b.header].span)
-                        .trim_end()
-                        .to_owned()
-                })
-                .unwrap_or_else(|| block.to_owned());
-            let _ = writeln!(out, "{header}    [{block}, from line {line}]");
-            current_block = Some(block);
-        }
-        let (line, _) = parsed.index.line_col(&parsed.source, d.span.start());
-        let _ = writeln!(
-            out,
-            "  {:<name_w$}  {:<text_w$}  {} (line {line})",
-            d.name,
-            d.text(),
-            d.label
-        );
-        if explain {
-            let _ = writeln!(
-                out,
-                "  {:<name_w$}    formula: {}",
-                "", d.derivation.formula
-            );
-            let _ = writeln!(
-                out,
-                "  {:<name_w$}    numbers: {}",
-                "", d.derivation.substituted
-            );
-            let s = d.derivation.source;
-            let _ = writeln!(
-                out,
-                "  {:<name_w$}    source:  {} [{}]",
-                "", s.citation, s.tag
-            );
-            if let Some(c) = d.caution {
-                let _ = writeln!(out, "  {:<name_w$}    caution: {c}", "");
-            }
+/// The column widths of the table of derived values: the longest name (at most
+/// 34 characters) and the longest value text (at most 30) of the whole file, so
+/// they are gathered over every value before the first row is written.
+#[derive(Debug, Clone, Copy, Default)]
+pub struct Widths {
+    name: usize,
+    text: usize,
+}
+
+impl Widths {
+    /// Widen to fit `values`.
+    pub fn fit(&mut self, values: &[Derived]) {
+        for d in values {
+            self.name = self.name.max(d.name.chars().count());
+            self.text = self.text.max(d.text().chars().count());
         }
     }
-    out
+}
+
+/// Writes the derived values of one file as a table grouped by block, as they
+/// are handed over block by block ([`parax_eval::StreamedSource::evaluate_each`]):
+/// a header line whenever the block changes, then one row per value (and its
+/// formula, numbers, source and caution with `explain`).
+pub struct Table<'a> {
+    read: &'a StreamedSource,
+    name_w: usize,
+    text_w: usize,
+    explain: bool,
+    current_block: Option<Arc<String>>,
+}
+
+impl<'a> Table<'a> {
+    /// A table over `read`'s values, with the widths gathered over all of them.
+    pub fn new(read: &'a StreamedSource, widths: Widths, explain: bool) -> Self {
+        Table {
+            read,
+            name_w: widths.name.min(34),
+            text_w: widths.text.min(30),
+            explain,
+            current_block: None,
+        }
+    }
+
+    /// True once a value has been written.
+    pub fn any(&self) -> bool {
+        self.current_block.is_some()
+    }
+
+    /// Write the rows of `values` (the next ones in order) to `out`.
+    pub fn write(
+        &mut self,
+        out: &mut impl std::io::Write,
+        values: &[Derived],
+    ) -> std::io::Result<()> {
+        let parsed = &self.read.parsed;
+        let (name_w, text_w) = (self.name_w, self.text_w);
+        for d in values {
+            if self.current_block.as_deref() != Some(&d.block) {
+                if self.current_block.is_some() {
+                    writeln!(out)?;
+                }
+                let (line, _) = parsed.index.line_col(&parsed.source, d.span.start());
+                let block = d.block.as_str();
+                let header = self
+                    .read
+                    .block_at(d.span.start)
+                    .map_or(block, |b| parsed.text(b.header).trim_end());
+                writeln!(out, "{header}    [{block}, from line {line}]")?;
+                self.current_block = Some(Arc::clone(&d.block));
+            }
+            let (line, _) = parsed.index.line_col(&parsed.source, d.span.start());
+            writeln!(
+                out,
+                "  {:<name_w$}  {:<text_w$}  {} (line {line})",
+                d.name,
+                d.text(),
+                d.label
+            )?;
+            if self.explain {
+                writeln!(
+                    out,
+                    "  {:<name_w$}    formula: {}",
+                    "",
+                    d.derivation.formula()
+                )?;
+                writeln!(
+                    out,
+                    "  {:<name_w$}    numbers: {}",
+                    "", d.derivation.substituted
+                )?;
+                let s = d.derivation.source();
+                writeln!(
+                    out,
+                    "  {:<name_w$}    source:  {} [{}]",
+                    "", s.citation, s.tag
+                )?;
+                if let Some(c) = d.caution {
+                    writeln!(out, "  {:<name_w$}    caution: {c}", "")?;
+                }
+            }
+        }
+        Ok(())
+    }
 }

@@ -1,8 +1,11 @@
 //! Output for programs. Keys are stable and documented in docs/cli.md.
 
-use parax_eval::{Derived, Diagnostic, GENERAL_CAUTION};
+use parax_eval::{Derived, Diagnostic, EvalOptions, StreamedSource, GENERAL_CAUTION};
 use parax_syntax::{Parsed, Span};
+use serde::ser::{SerializeMap, SerializeSeq};
+use serde::{Serialize, Serializer};
 use serde_json::{json, Value};
+use std::cell::RefCell;
 
 fn range(parsed: &Parsed, span: Span) -> Value {
     let (l1, c1) = parsed.index.line_col(&parsed.source, span.start());
@@ -58,26 +61,88 @@ pub fn derived(parsed: &Parsed, d: &Derived) -> Value {
         "text": d.text(),
         "range": range(parsed, d.span),
         "derivation": {
-            "formula": d.derivation.formula,
+            "formula": d.derivation.formula(),
             "substituted": d.derivation.substituted,
-            "source": d.derivation.source.citation,
-            "tag": d.derivation.source.tag,
+            "source": d.derivation.source().citation,
+            "tag": d.derivation.source().tag,
         },
         "caution": d.caution,
     })
 }
 
-/// The whole `eval --format json` report.
-pub fn eval_report(
+/// Write the whole `eval --format json` report of `read` to `out` (pretty, as
+/// `serde_json::to_string_pretty` writes it), computing the values while they
+/// are written: each block's values are serialized and dropped before the next
+/// block is computed, so the report is never held whole, neither as values nor
+/// as a `serde_json::Value`. Keys come in sorted order, as a `Value` object
+/// writes them. Returns every diagnostic of the file.
+pub fn write_eval_report(
+    out: impl std::io::Write,
     name: &str,
-    parsed: &Parsed,
-    derived_values: &[Derived],
-    diags: &[Diagnostic],
-) -> Value {
-    json!({
-        "file": name,
-        "derived": derived_values.iter().map(|d| derived(parsed, d)).collect::<Vec<_>>(),
-        "diagnostics": diags.iter().map(|d| diagnostic(parsed, d)).collect::<Vec<_>>(),
-        "caution": GENERAL_CAUTION,
-    })
+    read: &StreamedSource,
+) -> serde_json::Result<Vec<Diagnostic>> {
+    let diagnostics = RefCell::new(Vec::new());
+    let report = EvalReport {
+        name,
+        read,
+        diagnostics: &diagnostics,
+    };
+    report.serialize(&mut serde_json::Serializer::pretty(out))?;
+    Ok(diagnostics.into_inner())
+}
+
+/// The report's top level; serializing it runs the evaluation (see
+/// [`write_eval_report`]).
+struct EvalReport<'a> {
+    name: &'a str,
+    read: &'a StreamedSource,
+    /// Filled while `derived` is written, read for `diagnostics` after it.
+    diagnostics: &'a RefCell<Vec<Diagnostic>>,
+}
+
+impl Serialize for EvalReport<'_> {
+    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        let parsed = &self.read.parsed;
+        let mut map = serializer.serialize_map(Some(4))?;
+        map.serialize_entry("caution", GENERAL_CAUTION)?;
+        map.serialize_entry("derived", &Values(self))?;
+        let diags: Vec<Value> = self
+            .diagnostics
+            .borrow()
+            .iter()
+            .map(|d| diagnostic(parsed, d))
+            .collect();
+        map.serialize_entry("diagnostics", &diags)?;
+        map.serialize_entry("file", self.name)?;
+        map.end()
+    }
+}
+
+/// The `derived` array, serialized block by block as the values are computed.
+struct Values<'r, 'a>(&'r EvalReport<'a>);
+
+impl Serialize for Values<'_, '_> {
+    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        let parsed = &self.0.read.parsed;
+        let mut seq = serializer.serialize_seq(None)?;
+        let mut failed = None;
+        let diags = self
+            .0
+            .read
+            .evaluate_each(EvalOptions::default(), &mut |values| {
+                for d in values {
+                    if failed.is_some() {
+                        return;
+                    }
+                    if let Err(e) = seq.serialize_element(&derived(parsed, d)) {
+                        failed = Some(e);
+                    }
+                }
+            });
+        *self.0.diagnostics.borrow_mut() = diags;
+        match failed {
+            Some(e) => Err(e),
+            None => seq.end(),
+        }
+    }
 }

@@ -4,7 +4,7 @@
 
 use super::{current_eye, n4, sphcyl, Out};
 use crate::codes;
-use crate::derived::DerivedValue as V;
+use crate::derived::{DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
 use crate::model::{Case, ContactLens};
 use crate::sources as src;
@@ -75,7 +75,10 @@ fn ordered_power(
         "largest difference in any meridian between the power ordered and the power computed",
         V::Power { dioptres: diff },
         p.span,
-        "largest |eigenvalue| of F_ordered − F_computed (power matrices)",
+        &Method {
+            formula: "largest |eigenvalue| of F_ordered − F_computed (power matrices)",
+            source: src::CONTACT_ORDER,
+        },
         || {
             format!(
                 "ordered {}, {what} {} → {}",
@@ -84,7 +87,6 @@ fn ordered_power(
                 n4(diff)
             )
         },
-        src::CONTACT_ORDER,
     )
     .caution = Some(src::CAUTION_CONTACT);
     if diff >= contact::ORDER_DIFFERS_FROM - 1e-9 {
@@ -139,7 +141,10 @@ pub(super) fn compute(
         "refraction at the corneal plane",
         sphcyl(&corneal),
         c.span,
-        "F_c = F / (1 − d·F) per principal meridian",
+        &Method {
+            formula: "F_c = F / (1 − d·F) per principal meridian",
+            source: src::VERGENCE,
+        },
         || {
             format!(
                 "{} @ {} mm → {}",
@@ -148,7 +153,6 @@ pub(super) fn compute(
                 sphcyl(&corneal).display()
             )
         },
-        src::VERGENCE,
     )
     .caution = Some(src::CAUTION_CONTACT);
     if !rigid {
@@ -160,7 +164,10 @@ pub(super) fn compute(
                 text: if toric { "toric" } else { "spherical" }.into(),
             },
             c.span,
-            "toric when |cylinder at the cornea| ≥ 0.75 D",
+            &Method {
+                formula: "toric when |cylinder at the cornea| ≥ 0.75 D",
+                source: src::CONTACT_RULES,
+            },
             || {
                 format!(
                     "|{}| {} 0.75",
@@ -168,7 +175,6 @@ pub(super) fn compute(
                     if toric { "≥" } else { "<" }
                 )
             },
-            src::CONTACT_RULES,
         )
         .caution = Some(src::CAUTION_CONTACT);
         let lens = if toric {
@@ -186,9 +192,15 @@ pub(super) fn compute(
             sphcyl(&lens),
             c.span,
             if toric {
-                "corneal-plane sphere and cylinder, each to 0.25 D, the axis to the nearest degree"
+                &Method {
+                    formula: "corneal-plane sphere and cylinder, each to 0.25 D, the axis to the nearest degree",
+                    source: src::CONTACT_RULES,
+                }
             } else {
-                "spherical equivalent at the corneal plane, to 0.25 D"
+                &Method {
+                    formula: "spherical equivalent at the corneal plane, to 0.25 D",
+                    source: src::CONTACT_RULES,
+                }
             },
             || {
                 format!(
@@ -197,8 +209,7 @@ pub(super) fn compute(
                     sphcyl(&lens).display()
                 )
             },
-            src::CONTACT_RULES,
-        )
+)
         .caution = Some(src::CAUTION_CONTACT);
         let computed = if toric {
             corneal
@@ -238,7 +249,10 @@ pub(super) fn compute(
         "tear lens power",
         V::Power { dioptres: tear },
         bc.span,
-        "K(base curve) − flat K, K = 337.5 / r(mm)",
+        &Method {
+            formula: "K(base curve) − flat K, K = 337.5 / r(mm)",
+            source: src::CONTACT_RULES,
+        },
         || {
             format!(
                 "337.5 / {} − {} = {}",
@@ -247,7 +261,6 @@ pub(super) fn compute(
                 n4(tear)
             )
         },
-        src::CONTACT_RULES,
     )
     .caution = Some(src::CAUTION_CONTACT);
     let p = contact::rigid_power(&corneal, flat.1, tear);
@@ -256,7 +269,10 @@ pub(super) fn compute(
         "rigid lens power",
         V::Power { dioptres: p },
         bc.span,
-        "corneal-plane power in the flat meridian − tear lens",
+        &Method {
+            formula: "corneal-plane power in the flat meridian − tear lens",
+            source: src::CONTACT_RULES,
+        },
         || {
             format!(
                 "{} (meridian {}) − {} = {}",
@@ -266,7 +282,6 @@ pub(super) fn compute(
                 n4(p)
             )
         },
-        src::CONTACT_RULES,
     )
     .caution = Some(src::CAUTION_CONTACT);
     ordered_power(
@@ -282,9 +297,11 @@ pub(super) fn compute(
         "rigid lens power, to 0.25 D",
         V::Power { dioptres: pr },
         bc.span,
-        "to the nearest 0.25 D",
+        &Method {
+            formula: "to the nearest 0.25 D",
+            source: src::ROUNDING,
+        },
         || format!("{} → {}", n4(p), n4(pr)),
-        src::ROUNDING,
     )
     .caution = Some(src::CAUTION_CONTACT);
     let cc = contact::corneal_cylinder(flat.0, flat.1, steep.0);
@@ -297,7 +314,10 @@ pub(super) fn compute(
             axis: ra,
         },
         k.span,
-        "refractive cylinder − corneal cylinder, as power vectors (J0, J45)",
+        &Method {
+            formula: "refractive cylinder − corneal cylinder, as power vectors (J0, J45)",
+            source: src::THIBOS_1997,
+        },
         || {
             format!(
                 "({} x {}) − ({} x {}) = {} x {}",
@@ -309,7 +329,6 @@ pub(super) fn compute(
                 n4(ra)
             )
         },
-        src::THIBOS_1997,
     )
     .caution = Some(src::CAUTION_CONTACT);
     if rc.abs() >= contact::SPHERICAL_RIGID_BELOW - 1e-9 {

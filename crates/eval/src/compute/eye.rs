@@ -4,7 +4,7 @@
 
 use super::{n4, Out};
 use crate::codes;
-use crate::derived::{fmt_power, DerivedValue as V};
+use crate::derived::{fmt_power, DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
 use crate::model::{Case, Eye};
 use crate::sources as src;
@@ -67,9 +67,11 @@ fn refraction(
                 label,
                 sphcyl(&form),
                 span,
-                "(S, C, θ) → (S + C, −C, θ ± 90)",
+                &Method {
+                    formula: "(S, C, θ) → (S + C, −C, θ ± 90)",
+                    source: src::THIBOS_1997,
+                },
                 || format!("{} → {}", show(&rx), show(&form)),
-                src::THIBOS_1997,
             );
         }
     }
@@ -79,9 +81,11 @@ fn refraction(
         "spherical equivalent",
         V::Power { dioptres: m },
         span,
-        "M = S + C/2",
+        &Method {
+            formula: "M = S + C/2",
+            source: src::THIBOS_1997,
+        },
         || format!("M = {} + ({})/2 = {}", n4(s), n4(c), n4(m)),
-        src::THIBOS_1997,
     );
     let pv = rx.power_vector();
     let t2 = || format!("2θ = {}°", n4(2.0 * a));
@@ -90,18 +94,22 @@ fn refraction(
         "power vector J0",
         V::Power { dioptres: pv.j0 },
         span,
-        "J0 = −(C/2)·cos 2θ",
+        &Method {
+            formula: "J0 = −(C/2)·cos 2θ",
+            source: src::THIBOS_1997,
+        },
         || format!("J0 = −({}/2)·cos({}) = {}", n4(c), t2(), n4(pv.j0)),
-        src::THIBOS_1997,
     );
     out.push(
         "vector-j45",
         "power vector J45",
         V::Power { dioptres: pv.j45 },
         span,
-        "J45 = −(C/2)·sin 2θ",
+        &Method {
+            formula: "J45 = −(C/2)·sin 2θ",
+            source: src::THIBOS_1997,
+        },
         || format!("J45 = −({}/2)·sin({}) = {}", n4(c), t2(), n4(pv.j45)),
-        src::THIBOS_1997,
     );
     let b = pv.blur_strength();
     out.push(
@@ -109,7 +117,10 @@ fn refraction(
         "blur strength",
         V::Power { dioptres: b },
         span,
-        "B = √(M² + J0² + J45²)",
+        &Method {
+            formula: "B = √(M² + J0² + J45²)",
+            source: src::THIBOS_1997,
+        },
         || {
             format!(
                 "B = √({}² + {}² + {}²) = {}",
@@ -119,19 +130,21 @@ fn refraction(
                 n4(b)
             )
         },
-        src::THIBOS_1997,
     );
     let meridians = rx.principal_meridians();
     for (i, mer) in meridians.iter().enumerate() {
         out.push(
-            format!("meridian-{}", i + 1),
-            format!("principal meridian {}", i + 1),
+            ["meridian-1", "meridian-2"][i],
+            ["principal meridian 1", "principal meridian 2"][i],
             V::Meridian {
                 dioptres: mer.power,
                 meridian: mer.meridian,
             },
             span,
-            "F(φ) = S + C·sin²(φ − θ)",
+            &Method {
+                formula: "F(φ) = S + C·sin²(φ − θ)",
+                source: src::POWER_MATRIX,
+            },
             || {
                 format!(
                     "F({}) = {} + {}·sin²({} − {}) = {}",
@@ -143,7 +156,6 @@ fn refraction(
                     n4(mer.power)
                 )
             },
-            src::POWER_MATRIX,
         );
     }
     let vertex = r.value.vertex;
@@ -163,15 +175,18 @@ fn refraction(
             FarPoint::Infinity => V::Infinity,
             FarPoint::At { distance_m } => V::Distance {
                 metres: *distance_m,
-                from: from.into(),
+                from: crate::derived::shared_place(from),
             },
         };
         out.push(
-            format!("far-point-{}", i + 1),
-            format!("far point, meridian {}", i + 1),
+            ["far-point-1", "far-point-2"][i],
+            ["far point, meridian 1", "far point, meridian 2"][i],
             value,
             span,
-            "far point at 1/F from the correcting plane",
+            &Method {
+                formula: "far point at 1/F from the correcting plane",
+                source: src::VERGENCE,
+            },
             || {
                 format!(
                     "1 / {} D = {} m (meridian {})",
@@ -180,7 +195,6 @@ fn refraction(
                     n4(mer.meridian)
                 )
             },
-            src::VERGENCE,
         );
     }
     let strongest = meridians.iter().map(|m| m.power.abs()).fold(0.0, f64::max);
@@ -190,8 +204,8 @@ fn refraction(
                 &rx,
                 d,
                 0.0,
-                "corneal-plane",
-                "at the corneal plane",
+                ["corneal-plane", "corneal-plane-rounded"],
+                ["at the corneal plane", "at the corneal plane, to 0.25 D"],
                 span,
                 out,
                 diags,
@@ -232,8 +246,11 @@ fn refraction(
                 &rx,
                 d,
                 fv,
-                "at-frame-vertex",
-                "at the frame's vertex distance",
+                ["at-frame-vertex", "at-frame-vertex-rounded"],
+                [
+                    "at the frame's vertex distance",
+                    "at the frame's vertex distance, to 0.25 D",
+                ],
                 span,
                 out,
                 diags,
@@ -248,9 +265,11 @@ fn refraction(
             "near refraction",
             sphcyl(&near),
             add.span,
-            "near = distance sphere + add",
+            &Method {
+                formula: "near = distance sphere + add",
+                source: src::VERGENCE,
+            },
             || format!("{} + {} = {}", n4(s), n4(add.value), show(&near)),
-            src::VERGENCE,
         );
     }
 }
@@ -262,8 +281,8 @@ fn vertex_transfer(
     rx: &SphCyl,
     from: f64,
     to: f64,
-    name: &'static str,
-    label: &'static str,
+    [name, name_rounded]: [&'static str; 2],
+    [label, label_rounded]: [&'static str; 2],
     span: parax_syntax::Span,
     out: &mut Out<'_>,
     diags: &mut Vec<Diagnostic>,
@@ -294,21 +313,25 @@ fn vertex_transfer(
         label,
         sphcyl(&moved),
         span,
-        "F' = F / (1 − d·F) per principal meridian, d = distance moved toward the eye",
+        &Method {
+            formula: "F' = F / (1 − d·F) per principal meridian, d = distance moved toward the eye",
+            source: src::VERGENCE,
+        },
         substituted,
-        src::VERGENCE,
     )
     .caution = Some(src::CAUTION_VERTEX);
     let rounded = round_order(&moved, 0.25);
     out.push(
-        format!("{name}-rounded"),
-        format!("{label}, to 0.25 D"),
+        name_rounded,
+        label_rounded,
         sphcyl(&rounded),
         span,
-        "sphere and cylinder each rounded to the nearest 0.25 D, the axis to the nearest degree",
+        &Method {
+ formula: "sphere and cylinder each rounded to the nearest 0.25 D, the axis to the nearest degree",
+ source: src::ROUNDING_ORDER,
+ },
         || format!("{} → {}", show(&moved), show(&rounded)),
-        src::ROUNDING_ORDER,
-    )
+)
     .caution = Some(src::CAUTION_VERTEX);
     let change = m
         .iter()
@@ -389,9 +412,11 @@ fn keratometry(
                 meridian: r.meridian,
             },
             span,
-            "K = (n_k − 1) / r",
+            &Method {
+                formula: "K = (n_k − 1) / r",
+                source: src::KERATOMETRIC,
+            },
             || format!("K = ({} − 1) / {} m = {} D", index, n4(radius), n4(r.power)),
-            src::KERATOMETRIC,
         )
         .caution = caution;
     }
@@ -402,7 +427,10 @@ fn keratometry(
             dioptres: ast.mean_k,
         },
         span,
-        "mean K = (K1 + K2) / 2",
+        &Method {
+            formula: "mean K = (K1 + K2) / 2",
+            source: src::KERATOMETRIC,
+        },
         || {
             format!(
                 "({} + {}) / 2 = {}",
@@ -411,7 +439,6 @@ fn keratometry(
                 n4(ast.mean_k)
             )
         },
-        src::KERATOMETRIC,
     )
     .caution = caution;
     out.push(
@@ -422,7 +449,10 @@ fn keratometry(
             axis: ast.axis,
         },
         span,
-        "C = K_flat − K_steep, axis along the flat meridian (minus-cylinder form)",
+        &Method {
+            formula: "C = K_flat − K_steep, axis along the flat meridian (minus-cylinder form)",
+            source: src::KERATOMETRIC,
+        },
         || {
             format!(
                 "{} − {} = {} x {}",
@@ -432,7 +462,6 @@ fn keratometry(
                 n4(ast.axis)
             )
         },
-        src::KERATOMETRIC,
     )
     .caution = caution;
     let kind = match ast.kind {
@@ -446,9 +475,11 @@ fn keratometry(
         "type of corneal astigmatism",
         V::Text { text: kind.into() },
         span,
-        "by the minus-cylinder axis: 180 ± 30 with-the-rule, 90 ± 30 against-the-rule",
+        &Method {
+            formula: "by the minus-cylinder axis: 180 ± 30 with-the-rule, 90 ± 30 against-the-rule",
+            source: src::ASTIGMATISM_BANDS,
+        },
         || format!("axis {} → {kind}", n4(ast.axis)),
-        src::ASTIGMATISM_BANDS,
     );
     if let (Some(back), Some(t)) = (&e.posterior_radius, &e.corneal_thickness) {
         let front_r = (k.value[0].radius + k.value[1].radius) / 2.0;
@@ -474,9 +505,11 @@ fn keratometry(
             "total corneal power (thick cornea)",
             V::Power { dioptres: tp.total },
             back.span,
-            "F = F1 + F2 − (t/n)·F1·F2",
+            &Method {
+                formula: "F = F1 + F2 − (t/n)·F1·F2",
+                source: src::GULLSTRAND_THICK,
+            },
             subst,
-            src::GULLSTRAND_THICK,
         )
         .caution = caution;
         let over = ast.mean_k - tp.total;
@@ -485,9 +518,11 @@ fn keratometry(
             "mean K minus total corneal power",
             V::Power { dioptres: over },
             back.span,
-            "mean K − F_total",
+            &Method {
+                formula: "mean K − F_total",
+                source: src::TANG_2006,
+            },
             || format!("{} − {} = {}", n4(ast.mean_k), n4(tp.total), n4(over)),
-            src::TANG_2006,
         );
     }
 }

@@ -4,7 +4,7 @@
 //! cornea) of the measured axial length whose power gives the refraction.
 
 use super::{first_frame, n4, Out};
-use crate::derived::DerivedValue as V;
+use crate::derived::{DerivedValue as V, Method};
 use crate::model::{Case, Eye};
 use crate::sources as src;
 use parax_optics::lens_form::relative_spectacle_magnification_axial;
@@ -38,7 +38,10 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
         "relative spectacle magnification of the spectacle correction (reduced eye of this axial length)",
         V::Number { value: rsm },
         al.span,
-        "K = M/(1 − d₀·M); F_e = n'/AL − K (n' = 4/3); F_s = K/(1 + d·K); RSM = F_e / (F_e + F_s − d·F_s·F_e)",
+        &Method {
+ formula: "K = M/(1 − d₀·M); F_e = n'/AL − K (n' = 4/3); F_s = K/(1 + d·K); RSM = F_e / (F_e + F_s − d·F_s·F_e)",
+ source: src::RELATIVE_SPECTACLE_MAGNIFICATION,
+ },
         || {
             format!(
                 "M = {m4}, K = {k4}; F_e = {}/{} − ({k4}) = {fe4}; F_s = {fs4} at {} mm ({whence}); RSM = {fe4} / ({fe4} + ({fs4}) − {d:.6}·({fs4})·{fe4}) = {}",
@@ -52,7 +55,6 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
                 fs4 = n4(fs),
             )
         },
-        src::RELATIVE_SPECTACLE_MAGNIFICATION,
-    )
+)
     .caution = Some(src::CAUTION_MODEL);
 }

@@ -5,7 +5,7 @@
 
 use super::{n4, Out};
 use crate::codes;
-use crate::derived::DerivedValue as V;
+use crate::derived::{DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
 use crate::model::Eye;
 use crate::sources as src;
@@ -49,7 +49,10 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
                 metres: g.acd / 1000.0,
             },
             a.span,
-            "ACD = H + (0.62467·A − 68.747) − 3.336, H from corneal height (SRK/T)",
+            &Method {
+                formula: "ACD = H + (0.62467·A − 68.747) − 3.336, H from corneal height (SRK/T)",
+                source: src::SRKT,
+            },
             || {
                 format!(
                     "L {} mm, K {}, A {} → ACD {} mm{height_note}",
@@ -59,7 +62,6 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
                     n4(g.acd)
                 )
             },
-            src::SRKT,
         )
         .caution = Some(src::CAUTION_IOL);
         let p = iol::srkt_power(l, mean_k, a.value, target);
@@ -68,7 +70,10 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
             "IOL power for the target refraction (SRK/T)",
             V::Power { dioptres: p },
             a.span,
-            "SRK/T (Retzlaff, Sanders & Kraff 1990), V = 12 mm, target terms with minus signs",
+            &Method {
+ formula: "SRK/T (Retzlaff, Sanders & Kraff 1990), V = 12 mm, target terms with minus signs",
+ source: src::SRKT,
+ },
             || {
                 format!(
                     "L {} mm, mean K {}, A {}, target {} → {}{height_note}",
@@ -79,8 +84,7 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
                     n4(p)
                 )
             },
-            src::SRKT,
-        )
+)
         .caution = Some(src::CAUTION_IOL);
         if let Some(chosen) = &e.iol_power {
             let r = iol::srkt_refraction(l, mean_k, a.value, chosen.value);
@@ -89,9 +93,11 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
                 "predicted refraction with the chosen IOL (SRK/T, at 12 mm)",
                 V::Power { dioptres: r },
                 chosen.span,
-                "SRK/T solved for the refraction",
+                &Method {
+                    formula: "SRK/T solved for the refraction",
+                    source: src::SRKT,
+                },
                 || format!("IOL {} D → {}", n4(chosen.value), n4(r)),
-                src::SRKT,
             )
             .caution = Some(src::CAUTION_IOL);
         }
@@ -104,7 +110,10 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
             "IOL power for the target refraction (thin-lens vergence formula)",
             V::Power { dioptres: p },
             elp.span,
-            "P = n/(AL − ELP) − n/(n/(K + Z) − ELP), Z = R/(1 − 0.012·R), n = 1.336",
+            &Method {
+                formula: "P = n/(AL − ELP) − n/(n/(K + Z) − ELP), Z = R/(1 − 0.012·R), n = 1.336",
+                source: src::IOL_VERGENCE,
+            },
             || {
                 format!(
                     "AL {} mm, K {}, ELP {} mm, R {} → {}",
@@ -115,7 +124,6 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
                     n4(p)
                 )
             },
-            src::IOL_VERGENCE,
         )
         .caution = Some(src::CAUTION_IOL);
     }

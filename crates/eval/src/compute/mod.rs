@@ -13,12 +13,11 @@ mod visits;
 
 pub use visits::Visits;
 
-use crate::derived::{Derivation, Derived, DerivedValue, Source};
+use crate::derived::{Derivation, Derived, DerivedValue, Method, Phrase};
 use crate::diagnostic::Diagnostic;
 use crate::model::{Case, Expect, Eye, Frame, Side};
 use parax_optics::refraction::SphCyl;
 use parax_syntax::Span;
-use std::borrow::Cow;
 use std::sync::Arc;
 
 /// Every derived value and diagnostic of a case; the substituted formulas only
@@ -43,7 +42,7 @@ pub fn compute_eye(
     derived: &mut Vec<Derived>,
     diags: &mut Vec<Diagnostic>,
 ) {
-    let mut out = Out::new(eye::block_id(e).into(), derivations, derived);
+    let mut out = Out::new(Arc::new(eye::block_id(e)), derivations, derived);
     eye_block(case, visits, e, &mut out, diags);
 }
 
@@ -91,7 +90,7 @@ pub(crate) fn compute_each(
 ) {
     let visits = Visits::new(case);
     for e in &case.eyes {
-        let id: Arc<str> = eye::block_id(e).into();
+        let id = Arc::new(eye::block_id(e));
         let start = buf.len();
         let mut out = Out::new(Arc::clone(&id), derivations, buf);
         eye_block(case, &visits, e, &mut out, diags);
@@ -109,13 +108,13 @@ fn others_each(
     done: &mut BlockDone<'_>,
 ) {
     for s in &case.systems {
-        let id: Arc<str> = system::block_id(s).into();
+        let id = Arc::new(system::block_id(s));
         let start = buf.len();
         system::compute(s, &mut Out::new(Arc::clone(&id), derivations, buf), diags);
         done(&id, &s.expects, buf, start);
     }
     for l in &case.spectacle_lenses {
-        let id: Arc<str> = spectacle::block_id(l).into();
+        let id = Arc::new(spectacle::block_id(l));
         let start = buf.len();
         spectacle::compute(
             case,
@@ -126,7 +125,7 @@ fn others_each(
         done(&id, &l.expects, buf, start);
     }
     for f in &case.frames {
-        let id: Arc<str> = spectacle::frame_id(f).into();
+        let id = Arc::new(spectacle::frame_id(f));
         let start = buf.len();
         spectacle::compute_frame(
             case,
@@ -137,7 +136,7 @@ fn others_each(
         done(&id, &f.expects, buf, start);
     }
     for c in &case.contact_lenses {
-        let id: Arc<str> = contact::block_id(c).into();
+        let id = Arc::new(contact::block_id(c));
         let start = buf.len();
         contact::compute(
             case,
@@ -148,7 +147,7 @@ fn others_each(
         done(&id, &c.expects, buf, start);
     }
     for m in &case.model_eyes {
-        let id: Arc<str> = model_eye::block_id(m).into();
+        let id = Arc::new(model_eye::block_id(m));
         let start = buf.len();
         model_eye::compute(
             case,
@@ -212,13 +211,13 @@ pub(crate) fn sphcyl(rx: &SphCyl) -> DerivedValue {
 /// other caller ([`crate::evaluate`], JSON, hover, `eval --explain`) gets them
 /// written exactly as before.
 pub(crate) struct Out<'a> {
-    block: Arc<str>,
+    block: Arc<String>,
     derivations: bool,
     derived: &'a mut Vec<Derived>,
 }
 
 impl<'a> Out<'a> {
-    fn new(block: Arc<str>, derivations: bool, derived: &'a mut Vec<Derived>) -> Self {
+    fn new(block: Arc<String>, derivations: bool, derived: &'a mut Vec<Derived>) -> Self {
         Out {
             block,
             derivations,
@@ -237,32 +236,33 @@ impl<'a> Out<'a> {
     #[allow(clippy::too_many_arguments)]
     pub(crate) fn push(
         &mut self,
-        name: impl Into<Cow<'static, str>>,
-        label: impl Into<Cow<'static, str>>,
+        name: impl Into<Phrase>,
+        label: impl Into<Phrase>,
         value: DerivedValue,
         span: Span,
-        formula: &'static str,
+        method: &'static Method,
         substituted: impl FnOnce() -> String,
-        source: &'static Source,
     ) -> &mut Derived {
         let substituted = if self.derivations {
-            substituted()
+            substituted().into_boxed_str()
         } else {
-            String::new()
+            Box::default()
         };
-        self.derived.push(Derived {
-            block: Arc::clone(&self.block),
-            name: name.into(),
-            label: label.into(),
-            value,
-            span,
-            derivation: Derivation {
-                formula,
-                substituted,
-                source,
+        crate::push_growing_slowly(
+            self.derived,
+            Derived {
+                block: Arc::clone(&self.block),
+                name: name.into(),
+                label: label.into(),
+                value,
+                span,
+                derivation: Derivation {
+                    method,
+                    substituted,
+                },
+                caution: None,
             },
-            caution: None,
-        });
+        );
         self.derived.last_mut().expect("just pushed")
     }
 }

@@ -6,7 +6,7 @@
 
 use super::{first_frame, n4, slug, Out};
 use crate::codes;
-use crate::derived::DerivedValue as V;
+use crate::derived::{DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
 use crate::model::{Case, ModelEye};
 use crate::sources as src;
@@ -88,9 +88,12 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
         "equivalent power of the eye",
         V::Power { dioptres: r.power },
         span,
-        "F = −C of the system matrix (refraction [[1,0],[−F,1]], transfer [[1,d/n],[0,1]])",
+        &Method {
+            formula:
+                "F = −C of the system matrix (refraction [[1,0],[−F,1]], transfer [[1,d/n],[0,1]])",
+            source: src::SCHEMATIC_EYES,
+        },
         || format!("{base}: F = {}", n4(r.power)),
-        src::SCHEMATIC_EYES,
     );
     if s.len() >= 4 {
         let cornea = power_of(&s[..2], 1.0);
@@ -100,18 +103,22 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
             "power of the cornea (surfaces 1-2)",
             V::Power { dioptres: cornea },
             span,
-            "equivalent power of surfaces 1 and 2 and the gap between them",
+            &Method {
+                formula: "equivalent power of surfaces 1 and 2 and the gap between them",
+                source: src::SCHEMATIC_EYES,
+            },
             || format!("{base}: {}", n4(cornea)),
-            src::SCHEMATIC_EYES,
         );
         out.push(
             "lens-power",
             "power of the crystalline lens (surfaces 3 on, in aqueous)",
             V::Power { dioptres: lens },
             span,
-            "equivalent power of surfaces 3 onward, object space index of the aqueous",
+            &Method {
+                formula: "equivalent power of surfaces 3 onward, object space index of the aqueous",
+                source: src::SCHEMATIC_EYES,
+            },
             || format!("{base}: {}", n4(lens)),
-            src::SCHEMATIC_EYES,
         );
     }
     let inner: f64 = s[..s.len() - 1].iter().map(|x| x.distance_m).sum();
@@ -137,13 +144,15 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
                 label,
                 V::Distance {
                     metres: v,
-                    from: "the cornea".into(),
+                    from: crate::derived::shared_place("the cornea"),
                 },
                 span,
-                "cardinal points from the system matrix (n·D/C, n·(D − 1)/C, n'·(1 − A)/C, nodal = principal + (n' − n)/F)",
+                &Method {
+ formula: "cardinal points from the system matrix (n·D/C, n·(D − 1)/C, n'·(1 − A)/C, nodal = principal + (n' − n)/F)",
+ source: src::MATRICES,
+ },
                 || format!("{base}: {} mm from the cornea", n4(v * 1000.0)),
-                src::MATRICES,
-            );
+);
         }
     }
     // The iris lies at the front of the crystalline lens in the two full eyes;
@@ -156,21 +165,25 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
                 "entrance pupil (image of the iris by the cornea)",
                 V::Distance {
                     metres: at,
-                    from: "the cornea".into(),
+                    from: crate::derived::shared_place("the cornea"),
                 },
                 span,
-                "iris at the front of the lens traced back through the cornea: L' = L + F at each surface, L ← L'/(1 − (d/n)·L') across each gap",
+                &Method {
+ formula: "iris at the front of the lens traced back through the cornea: L' = L + F at each surface, L ← L'/(1 − (d/n)·L') across each gap",
+ source: src::ENTRANCE_PUPIL,
+ },
                 || format!("{base}: {} mm behind the cornea", n4(at * 1000.0)),
-                src::ENTRANCE_PUPIL,
-            );
+);
             out.push(
                 "entrance-pupil-magnification",
                 "entrance pupil magnification (pupil seen / iris aperture)",
                 V::Number { value: mag },
                 span,
-                "product of L/L' over the surfaces in front of the iris",
+                &Method {
+                    formula: "product of L/L' over the surfaces in front of the iris",
+                    source: src::ENTRANCE_PUPIL,
+                },
                 || format!("{base}: {}", n4(mag)),
-                src::ENTRANCE_PUPIL,
             );
         }
     }
@@ -180,9 +193,11 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
         "axial length (cornea to retina)",
         V::Length { metres: al },
         m.axial_length.as_ref().map_or(span, |a| a.span),
-        "sum of the surface distances",
+        &Method {
+            formula: "sum of the surface distances",
+            source: src::SCHEMATIC_EYES,
+        },
         || format!("{} mm", n4(al * 1000.0)),
-        src::SCHEMATIC_EYES,
     );
     out.push(
         "ocular-refraction",
@@ -191,9 +206,11 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
             dioptres: r.ocular_refraction,
         },
         span,
-        "K = A/B of the matrix from the cornea to the retina (far-point vergence)",
+        &Method {
+            formula: "K = A/B of the matrix from the cornea to the retina (far-point vergence)",
+            source: src::MATRICES,
+        },
         || format!("{base}: K = {}", n4(r.ocular_refraction)),
-        src::MATRICES,
     )
     .caution = Some(src::CAUTION_MODEL);
     let (vertex, whence) = match first_frame(case).and_then(|f| f.vertex.as_ref()) {
@@ -206,7 +223,10 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
         "spectacle refraction implied by the axial length",
         V::Power { dioptres: fs },
         span,
-        "F_s = K / (1 + d·K)",
+        &Method {
+            formula: "F_s = K / (1 + d·K)",
+            source: src::VERGENCE,
+        },
         || {
             format!(
                 "{} / (1 + {}·{}) = {} at {whence}",
@@ -216,7 +236,6 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
                 n4(fs)
             )
         },
-        src::VERGENCE,
     )
     .caution = Some(src::CAUTION_MODEL);
     if let Some(c) = r.cardinal {
@@ -229,7 +248,10 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
             "relative spectacle magnification of the spectacle correction (axial ametropia)",
             V::Number { value: rsm },
             span,
-            "RSM = F_e / (F_e + F_s − d·F_s·F_e), d = vertex distance + cornea to first principal point",
+            &Method {
+ formula: "RSM = F_e / (F_e + F_s − d·F_s·F_e), d = vertex distance + cornea to first principal point",
+ source: src::RELATIVE_SPECTACLE_MAGNIFICATION,
+ },
             || {
                 format!(
                     "d = {} + {} = {} mm; {fe} / ({fe} + ({f}) − {d:.6}·({f})·{fe}) = {}",
@@ -241,8 +263,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
                     f = n4(fs),
                 )
             },
-            src::RELATIVE_SPECTACLE_MAGNIFICATION,
-        )
+)
         .caution = Some(src::CAUTION_MODEL);
     }
 }

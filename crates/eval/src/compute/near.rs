@@ -4,7 +4,7 @@
 //! that keeps half the mean amplitude in reserve (rule of thumb).
 
 use super::{n4, Out};
-use crate::derived::DerivedValue as V;
+use crate::derived::{DerivedValue as V, Method};
 use crate::model::{Case, Eye};
 use crate::sources as src;
 use parax_optics::near;
@@ -45,9 +45,11 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
             label,
             V::Power { dioptres: v },
             span,
-            "Hofstetter: min 15 − 0.25·age, mean 18.5 − 0.30·age, max 25 − 0.40·age",
+            &Method {
+                formula: "Hofstetter: min 15 − 0.25·age, mean 18.5 − 0.30·age, max 25 − 0.40·age",
+                source: src::HOFSTETTER,
+            },
             || format!("{f} with age {} = {}", n4(age.value), n4(v)),
-            src::HOFSTETTER,
         );
     }
     if let Some(r) = &e.refraction {
@@ -63,18 +65,22 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
                 FarPoint::Infinity => V::Infinity,
                 FarPoint::At { distance_m } => V::Distance {
                     metres: distance_m,
-                    from: from.into(),
+                    from: crate::derived::shared_place(from),
                 },
             };
             out.push(
-                format!("near-point-{}", i + 1),
-                format!(
-                    "near point without correction, mean amplitude, meridian {}",
-                    i + 1
-                ),
+                ["near-point-1", "near-point-2"][i],
+                [
+                    "near point without correction, mean amplitude, meridian 1",
+                    "near point without correction, mean amplitude, meridian 2",
+                ][i],
                 value,
                 r.span,
-                "near point at 1/(R − A): refraction R of the meridian, mean amplitude A",
+                &Method {
+                    formula:
+                        "near point at 1/(R − A): refraction R of the meridian, mean amplitude A",
+                    source: src::HOFSTETTER,
+                },
                 || {
                     format!(
                         "1 / ({} − {}) = {} m (meridian {})",
@@ -84,7 +90,6 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
                         n4(mer.meridian)
                     )
                 },
-                src::HOFSTETTER,
             );
         }
     }
@@ -96,7 +101,10 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
             dioptres: suggested,
         },
         span,
-        "add = 1/w − A/2 (w = 0.40 m), to 0.25 D, not below 0",
+        &Method {
+            formula: "add = 1/w − A/2 (w = 0.40 m), to 0.25 D, not below 0",
+            source: src::HALF_RESERVE,
+        },
         || {
             format!(
                 "1/0.40 − {}/2 = {} → {}",
@@ -105,7 +113,6 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
                 n4(suggested)
             )
         },
-        src::HALF_RESERVE,
     )
     .caution = Some(crate::diagnostic::GENERAL_CAUTION);
     if let Some(add) = &e.add {
@@ -121,7 +128,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
             let value = match d {
                 Some(m) => V::Distance {
                     metres: -m,
-                    from: "the spectacle plane".into(),
+                    from: crate::derived::shared_place("the spectacle plane"),
                 },
                 None => V::Infinity,
             };
@@ -130,7 +137,10 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
                 label,
                 value,
                 add.span,
-                "far end 1/add, near end 1/(add + A), distance correction worn, mean amplitude",
+                &Method {
+ formula: "far end 1/add, near end 1/(add + A), distance correction worn, mean amplitude",
+ source: src::HOFSTETTER,
+ },
                 || {
                     format!(
                         "add {}, A {}: 1/{} and 1/({} + {})",
@@ -141,8 +151,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
                         n4(mean)
                     )
                 },
-                src::HOFSTETTER,
-            );
+);
         }
     }
 }

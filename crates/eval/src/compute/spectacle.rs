@@ -6,7 +6,7 @@
 
 use super::{current_eye, first_frame, n4, sphcyl, Out};
 use crate::codes;
-use crate::derived::DerivedValue as V;
+use crate::derived::{DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
 use crate::model::{At, Case, Frame, Side, SpectacleLens};
 use crate::sources as src;
@@ -16,6 +16,9 @@ use parax_optics::refraction::SphCyl;
 use parax_optics::tilt::{self, Tilt};
 use parax_optics::verify::{self, Check};
 use parax_optics::vertex::{round_order, transfer_sphcyl};
+
+/// The formula of the power as worn in a tilted frame.
+const AS_WORN_FORMULA: &str = "F_t = (1 + sin²γ/2n)·A⁻ᵀ·F·A⁻¹, A the lens plane projected along the line of sight, cos γ = cos p·cos f; sphere: S(1 + sin²γ/2n), C = S'·tan²γ about the tilt axis";
 
 /// `spectacle-lens.right` or `spectacle-lens.left`.
 pub fn block_id(l: &SpectacleLens) -> String {
@@ -145,14 +148,14 @@ fn prisms(case: &Case, l: &SpectacleLens) -> Prisms {
 fn vertical(p: &Prism) -> V {
     V::Prism {
         dioptres: p.base_up.abs(),
-        base: if p.base_up >= 0.0 { "BU" } else { "BD" }.into(),
+        base: if p.base_up >= 0.0 { "BU" } else { "BD" },
     }
 }
 
 fn horizontal(p: f64) -> V {
     V::Prism {
         dioptres: p.abs(),
-        base: if p >= 0.0 { "BI" } else { "BO" }.into(),
+        base: if p >= 0.0 { "BI" } else { "BO" },
     }
 }
 
@@ -324,19 +327,27 @@ pub(super) fn compute(
                 "power as worn (tilt)",
                 sphcyl(&worn),
                 pspan,
-                "F_t = (1 + sin²γ/2n)·A⁻ᵀ·F·A⁻¹, A the lens plane projected along the line of sight, cos γ = cos p·cos f; sphere: S(1 + sin²γ/2n), C = S'·tan²γ about the tilt axis",
-                || format!(
-                    "{} tilted {}° pantoscopic, {}° face form ({}), {index_note} → {}",
-                    sphcyl(&rx).display(),
-                    n4(t.pantoscopic_deg),
-                    n4(t.face_form_deg),
-                    oblique_note(&t),
-                    sphcyl(&worn).display()
-                ),
-                if rx.cylinder.abs() < 1e-9 && (t.pantoscopic_deg == 0.0 || t.face_form_deg == 0.0) {
-                    src::MARTIN
+                if rx.cylinder.abs() < 1e-9 && (t.pantoscopic_deg == 0.0 || t.face_form_deg == 0.0)
+                {
+                    &Method {
+                        formula: AS_WORN_FORMULA,
+                        source: src::MARTIN,
+                    }
                 } else {
-                    src::TILT_MATRIX
+                    &Method {
+                        formula: AS_WORN_FORMULA,
+                        source: src::TILT_MATRIX,
+                    }
+                },
+                || {
+                    format!(
+                        "{} tilted {}° pantoscopic, {}° face form ({}), {index_note} → {}",
+                        sphcyl(&rx).display(),
+                        n4(t.pantoscopic_deg),
+                        n4(t.face_form_deg),
+                        oblique_note(&t),
+                        sphcyl(&worn).display()
+                    )
                 },
             )
             .caution = Some(src::CAUTION_ORDER);
@@ -390,10 +401,12 @@ pub(super) fn compute(
                 "power to order (vertex and tilt compensated)",
                 sphcyl(&order),
                 l.span,
-                "F = Aᵀ·F_rx·A/(1 + sin²γ/2n), F_rx moved to the frame's vertex by F' = F/(1 − d·F)",
+                &Method {
+ formula: "F = Aᵀ·F_rx·A/(1 + sin²γ/2n), F_rx moved to the frame's vertex by F' = F/(1 − d·F)",
+ source: src::TILT_MATRIX,
+ },
                 || steps.join("; "),
-                src::TILT_MATRIX,
-            )
+)
             .caution = Some(src::CAUTION_ORDER);
             let rounded = round_order(&order, 0.25);
             out.push(
@@ -401,7 +414,10 @@ pub(super) fn compute(
                 "power to order, to 0.25 D and whole degrees",
                 sphcyl(&rounded),
                 l.span,
-                "sphere and cylinder each rounded to the nearest 0.25 D, the axis to the nearest degree",
+                &Method {
+ formula: "sphere and cylinder each rounded to the nearest 0.25 D, the axis to the nearest degree",
+ source: src::ROUNDING_ORDER,
+ },
                 || {
                     format!(
                         "{} → {}",
@@ -409,8 +425,7 @@ pub(super) fn compute(
                         sphcyl(&rounded).display()
                     )
                 },
-                src::ROUNDING_ORDER,
-            )
+)
             .caution = Some(src::CAUTION_ORDER);
         }
     }
@@ -421,9 +436,11 @@ pub(super) fn compute(
             "horizontal prism at the distance pupil",
             horizontal(d.base_in),
             l.span,
-            "P = −F·c (Prentice, power matrix; c in cm), plus any prescribed prism",
+            &Method {
+                formula: "P = −F·c (Prentice, power matrix; c in cm), plus any prescribed prism",
+                source: src::PRENTICE,
+            },
             || why.clone(),
-            src::PRENTICE,
         );
     }
     if let Some((r, why)) = &p.reading {
@@ -432,9 +449,11 @@ pub(super) fn compute(
             "vertical prism at the reading point",
             vertical(r),
             l.span,
-            "P = −F·c (Prentice, power matrix; c in cm), plus any prescribed prism",
+            &Method {
+                formula: "P = −F·c (Prentice, power matrix; c in cm), plus any prescribed prism",
+                source: src::PRENTICE,
+            },
             || why.clone(),
-            src::PRENTICE,
         );
         if p.reading_horizontal {
             out.push(
@@ -442,9 +461,12 @@ pub(super) fn compute(
                 "horizontal prism at the reading point",
                 horizontal(r.base_in),
                 l.span,
-                "P = −F·c (Prentice, power matrix; c in cm), plus any prescribed prism",
+                &Method {
+                    formula:
+                        "P = −F·c (Prentice, power matrix; c in cm), plus any prescribed prism",
+                    source: src::PRENTICE,
+                },
                 || why.clone(),
-                src::PRENTICE,
             );
         }
     }
@@ -456,9 +478,11 @@ pub(super) fn compute(
             "spectacle magnification",
             V::Number { value: sm },
             l.span,
-            "SM = 1/(1 − (t/n)·F1) × 1/(1 − h·Fv), h = vertex distance + 3 mm",
+            &Method {
+                formula: "SM = 1/(1 − (t/n)·F1) × 1/(1 − h·Fv), h = vertex distance + 3 mm",
+                source: src::SPECTACLE_MAGNIFICATION,
+            },
             || why,
-            src::SPECTACLE_MAGNIFICATION,
         );
     }
     verification(l, out, diags);
@@ -528,9 +552,11 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
         "decentration of the optical centre from the boxed centre",
         V::Length { metres: e.total },
         e.span,
-        "dec = √(((A + DBL − CD)/2)² + (OC height − B/2)²)",
+        &Method {
+            formula: "dec = √(((A + DBL − CD)/2)² + (OC height − B/2)²)",
+            source: src::BLANK_SIZE,
+        },
         why,
-        src::BLANK_SIZE,
     );
     let mbs = lens_form::minimum_blank(e.effective_diameter, e.total);
     out.push(
@@ -538,7 +564,10 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
         "minimum blank size",
         V::Length { metres: mbs },
         e.span,
-        "MBS = ED + 2 × decentration",
+        &Method {
+            formula: "MBS = ED + 2 × decentration",
+            source: src::BLANK_SIZE,
+        },
         || {
             format!(
                 "{}; {} + 2 × {} = {} mm (laboratories often add about 2 mm for edging)",
@@ -548,7 +577,6 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
                 n4(mbs * 1000.0)
             )
         },
-        src::BLANK_SIZE,
     );
     if let Some(b) = &l.blank_diameter {
         if b.value < mbs - 1e-9 {
@@ -586,18 +614,22 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
         "centre thickness of the lens edged to the frame",
         V::Length { metres: f.centre },
         e.span,
-        "minus: centre = minimum; plus: centre = edge + s_front − s_back, at the farthest point",
+        &Method {
+ formula: "minus: centre = minimum; plus: centre = edge + s_front − s_back, at the farthest point",
+ source: src::SAG,
+ },
         why,
-        src::SAG,
-    );
+);
     out.push(
         "edged-thickness-edge",
         "edge thickness at the farthest point of the edged lens (strongest meridian)",
         V::Length { metres: f.edge },
         e.span,
-        "edge = centre + s_back − s_front at y = ED/2 + decentration",
+        &Method {
+            formula: "edge = centre + s_back − s_front at y = ED/2 + decentration",
+            source: src::SAG,
+        },
         why,
-        src::SAG,
     );
 }
 
@@ -621,18 +653,22 @@ fn thickness(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) 
         "centre thickness",
         V::Length { metres: f.centre },
         span,
-        "minus: centre = minimum; plus: centre = edge + s_front − s_back",
+        &Method {
+            formula: "minus: centre = minimum; plus: centre = edge + s_front − s_back",
+            source: src::SAG,
+        },
         why,
-        src::SAG,
     );
     out.push(
         "thickness-edge",
         "edge thickness (strongest meridian, uncut blank)",
         V::Length { metres: f.edge },
         span,
-        "edge = centre + s_back − s_front",
+        &Method {
+            formula: "edge = centre + s_back − s_front",
+            source: src::SAG,
+        },
         why,
-        src::SAG,
     );
     let (min_c, min_e) = minimums(l, f.index);
     let minus = f.edge > f.centre;
@@ -770,7 +806,10 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
                 text: if pass { "pass" } else { "fail" }.into(),
             },
             m.span,
-            "|measured − ordered| ≤ tolerance of ANSI Z80.1-2015",
+            &Method {
+                formula: "|measured − ordered| ≤ tolerance of ANSI Z80.1-2015",
+                source: src::ANSI_Z80_1_2015,
+            },
             || {
                 format!(
                     "ordered {} ± {} → allowed {band}; measured {}",
@@ -779,7 +818,6 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
                     n4(c.measured)
                 )
             },
-            src::ANSI_Z80_1_2015,
         );
         if !pass {
             diags.push(
@@ -805,9 +843,11 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
             text: if all { "pass" } else { "fail" }.into(),
         },
         l.measured.as_ref().map_or(l.span, |m| m.span),
-        "every component compared is within its tolerance",
+        &Method {
+            formula: "every component compared is within its tolerance",
+            source: src::ANSI_Z80_1_2015,
+        },
         || compared.join("; "),
-        src::ANSI_Z80_1_2015,
     );
 }
 
@@ -826,9 +866,11 @@ pub(super) fn compute_frame(
             "optical-centre drop for the pantoscopic tilt",
             V::Length { metres: drop },
             t.span,
-            "drop ≈ 0.5 mm per degree of pantoscopic tilt",
+            &Method {
+                formula: "drop ≈ 0.5 mm per degree of pantoscopic tilt",
+                source: src::OC_DROP,
+            },
             || format!("0.5 mm × {} = {} mm", n4(t.value), n4(drop * 1000.0)),
-            src::OC_DROP,
         );
     }
     if let Some((h, drop)) = oc_height(f) {
@@ -837,15 +879,17 @@ pub(super) fn compute_frame(
             "recommended optical-centre height above the lowest point of the rim",
             V::Length { metres: h },
             f.fitting_height.as_ref().map_or(f.span, |h| h.span),
-            "OC height = fitting height − optical-centre drop (0.5 mm per degree of pantoscopic tilt)",
+            &Method {
+ formula: "OC height = fitting height − optical-centre drop (0.5 mm per degree of pantoscopic tilt)",
+ source: src::OC_HEIGHT,
+ },
             || format!(
                 "{} mm − {} mm = {} mm",
                 n4((h + drop) * 1000.0),
                 n4(drop * 1000.0),
                 n4(h * 1000.0)
             ),
-            src::OC_HEIGHT,
-        );
+);
     }
     // Only the first frame carries the pair's values (lenses are fitted in it).
     if !first_frame(case).is_some_and(|ff| std::ptr::eq(ff, f)) {
@@ -865,10 +909,13 @@ pub(super) fn compute_frame(
             "vertical prism imbalance at the reading point",
             V::Prism {
                 dioptres: imb,
-                base: "".into(),
+                base: "",
             },
             span,
-            "|P_v(right) − P_v(left)| with base up positive",
+            &Method {
+                formula: "|P_v(right) − P_v(left)| with base up positive",
+                source: src::PRISM_TOLERANCE,
+            },
             || {
                 format!(
                     "right {:+.4}Δ, left {:+.4}Δ (base up +) → {}Δ",
@@ -877,7 +924,6 @@ pub(super) fn compute_frame(
                     n4(imb)
                 )
             },
-            src::PRISM_TOLERANCE,
         );
         if imb > prism::VERTICAL_TOLERANCE + 1e-9 {
             let slab = if imb > prism::SLAB_OFF_CONSIDER {
@@ -908,9 +954,11 @@ pub(super) fn compute_frame(
             "net horizontal prism at the distance pupils",
             horizontal(net),
             span,
-            "P_h(right) + P_h(left), base in positive",
+            &Method {
+                formula: "P_h(right) + P_h(left), base in positive",
+                source: src::PRISM_TOLERANCE,
+            },
             || format!("{:+.4}Δ + {:+.4}Δ = {}Δ", a.base_in, b.base_in, n4(net)),
-            src::PRISM_TOLERANCE,
         );
         if net.abs() > prism::HORIZONTAL_TOLERANCE + 1e-9 {
             diags.push(
@@ -937,7 +985,10 @@ pub(super) fn compute_frame(
             "aniseikonia estimate, % (right relative to left)",
             V::Number { value: pct },
             f.span,
-            "(SM_right / SM_left − 1) × 100",
+            &Method {
+                formula: "(SM_right / SM_left − 1) × 100",
+                source: src::ANISEIKONIA,
+            },
             || {
                 format!(
                     "right: {wa}; left: {wb}; ({} / {} − 1) × 100 = {}",
@@ -946,7 +997,6 @@ pub(super) fn compute_frame(
                     n4(pct)
                 )
             },
-            src::ANISEIKONIA,
         );
     }
 }
@@ -1004,22 +1054,26 @@ fn mounted_pair(
         "vertical prism imbalance of the received pair at the pupils",
         V::Prism {
             dioptres: vertical,
-            base: "".into(),
+            base: "",
         },
         span,
-        "|P_v(right) − P_v(left)|, P = −F_measured·c plus measured − ordered prism",
+        &Method {
+            formula: "|P_v(right) − P_v(left)|, P = −F_measured·c plus measured − ordered prism",
+            source: src::MOUNTED_PAIR,
+        },
         || why("base up +", pr.base_up, pl.base_up, vertical),
-        src::MOUNTED_PAIR,
     );
     out.push(
         "mounted-horizontal-imbalance",
         "net horizontal prism of the received pair at the pupils",
         self::horizontal(horizontal),
         span,
-        "P_h(right) + P_h(left), base in +, P = −F_measured·c plus measured − ordered prism",
+        &Method {
+ formula: "P_h(right) + P_h(left), base in +, P = −F_measured·c plus measured − ordered prism",
+ source: src::MOUNTED_PAIR,
+ },
         || why("base in +", pr.base_in, pl.base_in, horizontal),
-        src::MOUNTED_PAIR,
-    );
+);
     let checks = [
         (
             "check-mounted-vertical",
@@ -1094,10 +1148,12 @@ fn mounted_pair(
                 .into(),
             },
             span,
-            "ANSI Z80.1-2015 mounted pair: vertical ≤ 0.33Δ (≤ 3.375 D), horizontal ≤ 0.67Δ (≤ 2.75 D)",
+            &Method {
+ formula: "ANSI Z80.1-2015 mounted pair: vertical ≤ 0.33Δ (≤ 3.375 D), horizontal ≤ 0.67Δ (≤ 2.75 D)",
+ source: src::MOUNTED_PAIR,
+ },
             || detail,
-            src::MOUNTED_PAIR,
-        );
+);
         if pass == Some(false) {
             diags.push(
                 Diagnostic::new(

@@ -4,7 +4,7 @@
 
 use super::{n4, slug, Out};
 use crate::codes;
-use crate::derived::DerivedValue as V;
+use crate::derived::{DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
 use crate::model::{ObjectAt, System, SystemElement};
 use crate::sources as src;
@@ -22,7 +22,7 @@ fn place(p: ImagePlace, label: &str) -> V {
             after_element_m, ..
         } => V::Distance {
             metres: after_element_m,
-            from: label.to_owned().into(),
+            from: label.into(),
         },
     }
 }
@@ -152,9 +152,11 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
                 dioptres: step.incident_vergence,
             },
             span,
-            "L2 = L1' / (1 − (d/n)·L1')",
+            &Method {
+                formula: "L2 = L1' / (1 − (d/n)·L1')",
+                source: src::VERGENCE,
+            },
             || chain.clone(),
-            src::VERGENCE,
         );
         out.push(
             format!("{label}.vergence-out"),
@@ -163,9 +165,11 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
                 dioptres: step.emergent_vergence,
             },
             span,
-            "L' = L + F",
+            &Method {
+                formula: "L' = L + F",
+                source: src::VERGENCE,
+            },
             line,
-            src::VERGENCE,
         );
         let image_sub = || match step.image {
             ImagePlace::AtInfinity => "L' = 0: image at infinity".to_owned(),
@@ -186,9 +190,11 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             format!("image formed by {label}"),
             place(step.image, label),
             span,
-            "l' = n / L'",
+            &Method {
+                formula: "l' = n / L'",
+                source: src::VERGENCE,
+            },
             image_sub,
-            src::VERGENCE,
         );
         if let Some(m) = step.magnification {
             out.push(
@@ -196,7 +202,10 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
                 format!("lateral magnification at {label}"),
                 V::Number { value: m },
                 span,
-                "m = L / L'",
+                &Method {
+                    formula: "m = L / L'",
+                    source: src::VERGENCE,
+                },
                 || {
                     format!(
                         "m = {} / {} = {}",
@@ -205,7 +214,6 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
                         n4(m)
                     )
                 },
-                src::VERGENCE,
             );
         }
     }
@@ -216,9 +224,11 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         "final image",
         place(t.final_image, last_label),
         last_span,
-        "step-along vergence through every element",
+        &Method {
+            formula: "step-along vergence through every element",
+            source: src::VERGENCE,
+        },
         || chain.clone(),
-        src::VERGENCE,
     );
     if let Some(m) = t.total_magnification {
         let factors = || -> Vec<String> {
@@ -232,9 +242,11 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             "total lateral magnification",
             V::Number { value: m },
             last_span,
-            "m = m1 · m2 · …",
+            &Method {
+                formula: "m = m1 · m2 · …",
+                source: src::VERGENCE,
+            },
             || format!("{} = {}", factors().join(" · "), n4(m)),
-            src::VERGENCE,
         );
     }
     let kind = match (t.final_image, t.erect) {
@@ -255,9 +267,11 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             text: kind.clone().into(),
         },
         last_span,
-        "real when the final vergence L' > 0; erect when m > 0",
+        &Method {
+            formula: "real when the final vergence L' > 0; erect when m > 0",
+            source: src::VERGENCE,
+        },
         || kind.clone(),
-        src::VERGENCE,
     );
     // Powers by matrices, up to the last lens (a trailing gap is image space).
     let m = system_matrix(&elements[..=last_i]);
@@ -271,23 +285,32 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             n4(m.d)
         )
     };
-    for (name, label, formula, value) in [
+    for (name, label, method, value) in [
         (
             "equivalent-power",
             "equivalent power",
-            "F = −C",
+            &Method {
+                formula: "F = −C",
+                source: src::MATRICES,
+            },
             p.equivalent,
         ),
         (
             "back-vertex-power",
             "back vertex power",
-            "F'v = −C / A",
+            &Method {
+                formula: "F'v = −C / A",
+                source: src::MATRICES,
+            },
             p.back_vertex,
         ),
         (
             "front-vertex-power",
             "front vertex power",
-            "Fv = −C / D",
+            &Method {
+                formula: "Fv = −C / D",
+                source: src::MATRICES,
+            },
             p.front_vertex,
         ),
     ] {
@@ -297,9 +320,8 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
                 label,
                 V::Power { dioptres: value },
                 last_span,
-                formula,
-                || format!("{}; {formula} = {}", msub(), n4(value)),
-                src::MATRICES,
+                method,
+                || format!("{}; {} = {}", msub(), method.formula, n4(value)),
             );
         }
     }

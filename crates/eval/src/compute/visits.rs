@@ -4,7 +4,7 @@
 
 use super::{n4, Out};
 use crate::codes;
-use crate::derived::DerivedValue as V;
+use crate::derived::{DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
 use crate::model::{Case, Eye, Side};
 use crate::sources as src;
@@ -113,7 +113,10 @@ pub(super) fn compute(
             "anisometropia in spherical equivalent",
             V::Power { dioptres: se },
             span,
-            "|M_right − M_left|",
+            &Method {
+                formula: "|M_right − M_left|",
+                source: src::THIBOS_1997,
+            },
             || {
                 format!(
                     "|{} − {}| = {}",
@@ -122,18 +125,23 @@ pub(super) fn compute(
                     n4(se)
                 )
             },
-            src::THIBOS_1997,
         );
         let mut worst: f64 = se;
-        for mer in [180.0, 90.0] {
+        for (mer, name, label) in [
+            (180.0, "anisometropia-180", "anisometropia in meridian 180"),
+            (90.0, "anisometropia-90", "anisometropia in meridian 90"),
+        ] {
             let d = (r.meridian_power(mer) - l.meridian_power(mer)).abs();
             worst = worst.max(d);
             out.push(
-                format!("anisometropia-{}", mer as i64),
-                format!("anisometropia in meridian {}", mer as i64),
+                name,
+                label,
                 V::Power { dioptres: d },
                 span,
-                "|F_right(φ) − F_left(φ)|, F(φ) = S + C·sin²(φ − θ)",
+                &Method {
+                    formula: "|F_right(φ) − F_left(φ)|, F(φ) = S + C·sin²(φ − θ)",
+                    source: src::POWER_MATRIX,
+                },
                 || {
                     format!(
                         "|{} − {}| = {}",
@@ -142,7 +150,6 @@ pub(super) fn compute(
                         n4(d)
                     )
                 },
-                src::POWER_MATRIX,
             );
         }
         if e.side == Side::Right && worst >= 2.0 - 1e-9 {
@@ -190,7 +197,10 @@ pub(super) fn compute(
             label,
             V::Power { dioptres: v },
             span,
-            "power vector now − power vector at the previous visit",
+            &Method {
+                formula: "power vector now − power vector at the previous visit",
+                source: src::THIBOS_1997,
+            },
             || {
                 format!(
                     "{} → {}: {}",
@@ -199,7 +209,6 @@ pub(super) fn compute(
                     n4(v)
                 )
             },
-            src::THIBOS_1997,
         );
     }
     out.push(
@@ -207,9 +216,11 @@ pub(super) fn compute(
         "years since the previous visit",
         V::Number { value: years },
         span,
-        "days / 365.25",
+        &Method {
+            formula: "days / 365.25",
+            source: src::THIBOS_1997,
+        },
         || format!("{} days / 365.25 = {}", now - then, n4(years)),
-        src::THIBOS_1997,
     );
     let per_year = change.m / years;
     out.push(
@@ -217,9 +228,11 @@ pub(super) fn compute(
         "change of M per year",
         V::Power { dioptres: per_year },
         span,
-        "ΔM / years",
+        &Method {
+            formula: "ΔM / years",
+            source: src::THIBOS_1997,
+        },
         || format!("{} / {} = {}", n4(change.m), n4(years), n4(per_year)),
-        src::THIBOS_1997,
     );
     let blur_per_year = change.blur_strength() / years;
     out.push(
@@ -229,7 +242,10 @@ pub(super) fn compute(
             dioptres: blur_per_year,
         },
         span,
-        "√(ΔM² + ΔJ0² + ΔJ45²) / years",
+        &Method {
+            formula: "√(ΔM² + ΔJ0² + ΔJ45²) / years",
+            source: src::THIBOS_1997,
+        },
         || {
             format!(
                 "{} / {} = {}",
@@ -238,7 +254,6 @@ pub(super) fn compute(
                 n4(blur_per_year)
             )
         },
-        src::THIBOS_1997,
     );
     if blur_per_year >= 0.5 - 1e-9 {
         diags.push(
