@@ -1,16 +1,19 @@
 """The real `parax lsp` under the client capability sets recorded from several
-editors (shipped with pytest-lsp): position encoding negotiation, diagnostics,
-inlay hints on a non-ASCII line, hover, formatting and a code action.
+editors (shipped with pytest-lsp, and Helix's in `clients/`): position encoding
+negotiation, diagnostics, inlay hints on a non-ASCII line, hover, formatting and
+a code action.
 
 Run: PARAX_BIN=/path/to/parax pytest editors/test-clients
 """
 
+import json
 import os
 import pathlib
 
 import pytest
 import pytest_lsp
 from lsprotocol import types
+from lsprotocol.converters import get_converter
 from pytest_lsp import ClientServerConfig, LanguageClient, client_capabilities
 
 PARAX = os.environ.get("PARAX_BIN", "parax")
@@ -24,7 +27,19 @@ CLIENTS = [
     "neovim@v0.7.0",
     "emacs@v29.1",
     "visual-studio-code@v1.65.2",
+    # Not shipped with pytest-lsp: written from the `initialize` request of
+    # helix-editor/helix, helix-lsp/src/client.rs (commit 0002bec4aaf2), as JSON.
+    # It offers UTF-8 before UTF-32 and UTF-16, and cannot resolve hint tooltips.
+    "helix",
 ]
+
+
+def capabilities(name: str) -> types.ClientCapabilities:
+    """A recorded capability set: pytest-lsp's, or one of `clients/*.json`."""
+    ours = HERE / "clients" / f"{name}.json"
+    if ours.exists():
+        return get_converter().structure(json.loads(ours.read_text()), types.ClientCapabilities)
+    return client_capabilities(name)
 
 # Invented demo data: not a real person. `×` is two UTF-8 bytes, one UTF-16 unit.
 CASE = """# Invented demo data for tests: Zoë Núñez is not a real person.
@@ -44,10 +59,13 @@ URI = (ROOT / "target-test" / "zoe.parax").as_uri()
     config=ClientServerConfig(server_command=[PARAX, "lsp"]),
 )
 async def client(request, lsp_client: LanguageClient):
-    caps = client_capabilities(request.param)
+    caps = capabilities(request.param)
     result = await lsp_client.initialize_session(types.InitializeParams(capabilities=caps))
     offered = (caps.general and caps.general.position_encodings) or []
     lsp_client.utf8 = "utf-8" in offered
+    hint_caps = caps.text_document and caps.text_document.inlay_hint
+    resolve = hint_caps and hint_caps.resolve_support
+    lsp_client.lazy_tooltips = bool(resolve and "tooltip" in resolve.properties)
     lsp_client.result = result
     yield
     await lsp_client.shutdown_session()
@@ -84,6 +102,11 @@ async def test_diagnostics_and_hints_in_the_negotiated_encoding(client: Language
     # End of the keratometry line: 41 characters, two of them `×`.
     assert k.position.character == (43 if client.utf8 else 41)
     assert k.label.startswith("K +43.55 D")
+    # A client that resolves tooltips gets them on demand; any other with the hint.
+    if client.lazy_tooltips:
+        assert k.tooltip is None
+        k = await client.inlay_hint_resolve_async(k)
+    assert "mean K: +43.55 D" in str(k.tooltip), k.tooltip
 
 
 async def test_hover_formatting_and_fix(client: LanguageClient):
