@@ -192,15 +192,9 @@ pub(super) fn compute(
             sphcyl(&lens),
             c.span,
             if toric {
-                &Method {
-                    formula: "corneal-plane sphere and cylinder, each to 0.25 D, the axis to the nearest degree",
-                    source: src::CONTACT_RULES,
-                }
+                &TORIC_ORDER_ROUNDED
             } else {
-                &Method {
-                    formula: "spherical equivalent at the corneal plane, to 0.25 D",
-                    source: src::CONTACT_RULES,
-                }
+                &SPHERICAL_ORDER_ROUNDED
             },
             || {
                 format!(
@@ -209,7 +203,7 @@ pub(super) fn compute(
                     sphcyl(&lens).display()
                 )
             },
-)
+        )
         .caution = Some(src::CAUTION_CONTACT);
         let computed = if toric {
             corneal
@@ -347,3 +341,15 @@ pub(super) fn compute(
         );
     }
 }
+
+/// How a toric contact lens order is rounded.
+const TORIC_ORDER_ROUNDED: Method = Method {
+    formula: "corneal-plane sphere and cylinder, each to 0.25 D, the axis to the nearest degree",
+    source: src::CONTACT_RULES,
+};
+
+/// How a spherical contact lens order is rounded.
+const SPHERICAL_ORDER_ROUNDED: Method = Method {
+    formula: "spherical equivalent at the corneal plane, to 0.25 D",
+    source: src::CONTACT_RULES,
+};

@@ -326,12 +326,9 @@ fn vertex_transfer(
         label_rounded,
         sphcyl(&rounded),
         span,
-        &Method {
- formula: "sphere and cylinder each rounded to the nearest 0.25 D, the axis to the nearest degree",
- source: src::ROUNDING_ORDER,
- },
+        &ROUNDED_TO_QUARTERS,
         || format!("{} → {}", show(&moved), show(&rounded)),
-)
+    )
     .caution = Some(src::CAUTION_VERTEX);
     let change = m
         .iter()
@@ -526,3 +523,11 @@ fn keratometry(
         );
     }
 }
+
+/// The method of one value of this module (kept apart: its formula is too
+/// long for a call site).
+const ROUNDED_TO_QUARTERS: Method = Method {
+    formula:
+        "sphere and cylinder each rounded to the nearest 0.25 D, the axis to the nearest degree",
+    source: src::ROUNDING_ORDER,
+};

@@ -35,16 +35,15 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
     let rsm = relative_spectacle_magnification_axial(fe, fs, d);
     out.push(
         "relative-spectacle-magnification",
-        "relative spectacle magnification of the spectacle correction (reduced eye of this axial length)",
+        RSM_AXIAL_LABEL,
         V::Number { value: rsm },
         al.span,
-        &Method {
- formula: "K = M/(1 − d₀·M); F_e = n'/AL − K (n' = 4/3); F_s = K/(1 + d·K); RSM = F_e / (F_e + F_s − d·F_s·F_e)",
- source: src::RELATIVE_SPECTACLE_MAGNIFICATION,
- },
+        &RSM_REDUCED_EYE,
         || {
             format!(
-                "M = {m4}, K = {k4}; F_e = {}/{} − ({k4}) = {fe4}; F_s = {fs4} at {} mm ({whence}); RSM = {fe4} / ({fe4} + ({fs4}) − {d:.6}·({fs4})·{fe4}) = {}",
+                "M = {m4}, K = {k4}; F_e = {}/{} − ({k4}) = {fe4}; \
+                 F_s = {fs4} at {} mm ({whence}); \
+                 RSM = {fe4} / ({fe4} + ({fs4}) − {d:.6}·({fs4})·{fe4}) = {}",
                 n4(n),
                 n4(al.value),
                 n4(d * 1000.0),
@@ -55,6 +54,17 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
                 fs4 = n4(fs),
             )
         },
-)
+    )
     .caution = Some(src::CAUTION_MODEL);
 }
+
+/// The method of one value of this module (kept apart: its formula is too
+/// long for a call site).
+const RSM_REDUCED_EYE: Method = Method {
+    formula: "K = M/(1 − d₀·M); F_e = n'/AL − K (n' = 4/3); F_s = K/(1 + d·K); RSM = F_e / (F_e + F_s − d·F_s·F_e)",
+    source: src::RELATIVE_SPECTACLE_MAGNIFICATION,
+};
+
+/// The label of the eye block's relative spectacle magnification.
+const RSM_AXIAL_LABEL: &str =
+    "relative spectacle magnification of the spectacle correction (reduced eye of this axial length)";

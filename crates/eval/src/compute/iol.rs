@@ -70,10 +70,7 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
             "IOL power for the target refraction (SRK/T)",
             V::Power { dioptres: p },
             a.span,
-            &Method {
- formula: "SRK/T (Retzlaff, Sanders & Kraff 1990), V = 12 mm, target terms with minus signs",
- source: src::SRKT,
- },
+            &SRKT_POWER,
             || {
                 format!(
                     "L {} mm, mean K {}, A {}, target {} → {}{height_note}",
@@ -84,7 +81,7 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
                     n4(p)
                 )
             },
-)
+        )
         .caution = Some(src::CAUTION_IOL);
         if let Some(chosen) = &e.iol_power {
             let r = iol::srkt_refraction(l, mean_k, a.value, chosen.value);
@@ -151,3 +148,10 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
         );
     }
 }
+
+/// The method of one value of this module (kept apart: its formula is too
+/// long for a call site).
+const SRKT_POWER: Method = Method {
+    formula: "SRK/T (Retzlaff, Sanders & Kraff 1990), V = 12 mm, target terms with minus signs",
+    source: src::SRKT,
+};

@@ -147,12 +147,9 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
                     from: crate::derived::shared_place("the cornea"),
                 },
                 span,
-                &Method {
- formula: "cardinal points from the system matrix (n·D/C, n·(D − 1)/C, n'·(1 − A)/C, nodal = principal + (n' − n)/F)",
- source: src::MATRICES,
- },
+                &CARDINAL_POINTS,
                 || format!("{base}: {} mm from the cornea", n4(v * 1000.0)),
-);
+            );
         }
     }
     // The iris lies at the front of the crystalline lens in the two full eyes;
@@ -168,12 +165,9 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
                     from: crate::derived::shared_place("the cornea"),
                 },
                 span,
-                &Method {
- formula: "iris at the front of the lens traced back through the cornea: L' = L + F at each surface, L ← L'/(1 − (d/n)·L') across each gap",
- source: src::ENTRANCE_PUPIL,
- },
+                &ENTRANCE_PUPIL_TRACE,
                 || format!("{base}: {} mm behind the cornea", n4(at * 1000.0)),
-);
+            );
             out.push(
                 "entrance-pupil-magnification",
                 "entrance pupil magnification (pupil seen / iris aperture)",
@@ -248,10 +242,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
             "relative spectacle magnification of the spectacle correction (axial ametropia)",
             V::Number { value: rsm },
             span,
-            &Method {
- formula: "RSM = F_e / (F_e + F_s − d·F_s·F_e), d = vertex distance + cornea to first principal point",
- source: src::RELATIVE_SPECTACLE_MAGNIFICATION,
- },
+            &RSM_MODEL_EYE,
             || {
                 format!(
                     "d = {} + {} = {} mm; {fe} / ({fe} + ({f}) − {d:.6}·({f})·{fe}) = {}",
@@ -263,7 +254,29 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
                     f = n4(fs),
                 )
             },
-)
+        )
         .caution = Some(src::CAUTION_MODEL);
     }
 }
+
+/// The method of one value of this module (kept apart: its formula is too
+/// long for a call site).
+const CARDINAL_POINTS: Method = Method {
+    formula: "cardinal points from the system matrix (n·D/C, n·(D − 1)/C, n'·(1 − A)/C, nodal = principal + (n' − n)/F)",
+    source: src::MATRICES,
+};
+
+/// The method of one value of this module (kept apart: its formula is too
+/// long for a call site).
+const ENTRANCE_PUPIL_TRACE: Method = Method {
+    formula: "iris at the front of the lens traced back through the cornea: L' = L + F at each surface, L ← L'/(1 − (d/n)·L') across each gap",
+    source: src::ENTRANCE_PUPIL,
+};
+
+/// The method of one value of this module (kept apart: its formula is too
+/// long for a call site).
+const RSM_MODEL_EYE: Method = Method {
+    formula:
+        "RSM = F_e / (F_e + F_s − d·F_s·F_e), d = vertex distance + cornea to first principal point",
+    source: src::RELATIVE_SPECTACLE_MAGNIFICATION,
+};

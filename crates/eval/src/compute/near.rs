@@ -137,10 +137,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
                 label,
                 value,
                 add.span,
-                &Method {
- formula: "far end 1/add, near end 1/(add + A), distance correction worn, mean amplitude",
- source: src::HOFSTETTER,
- },
+                &CLEAR_RANGE_THROUGH_ADD,
                 || {
                     format!(
                         "add {}, A {}: 1/{} and 1/({} + {})",
@@ -151,7 +148,14 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
                         n4(mean)
                     )
                 },
-);
+            );
         }
     }
 }
+
+/// The method of one value of this module (kept apart: its formula is too
+/// long for a call site).
+const CLEAR_RANGE_THROUGH_ADD: Method = Method {
+    formula: "far end 1/add, near end 1/(add + A), distance correction worn, mean amplitude",
+    source: src::HOFSTETTER,
+};

@@ -401,12 +401,9 @@ pub(super) fn compute(
                 "power to order (vertex and tilt compensated)",
                 sphcyl(&order),
                 l.span,
-                &Method {
- formula: "F = Aᵀ·F_rx·A/(1 + sin²γ/2n), F_rx moved to the frame's vertex by F' = F/(1 − d·F)",
- source: src::TILT_MATRIX,
- },
+                &COMPENSATED_ORDER,
                 || steps.join("; "),
-)
+            )
             .caution = Some(src::CAUTION_ORDER);
             let rounded = round_order(&order, 0.25);
             out.push(
@@ -414,10 +411,7 @@ pub(super) fn compute(
                 "power to order, to 0.25 D and whole degrees",
                 sphcyl(&rounded),
                 l.span,
-                &Method {
- formula: "sphere and cylinder each rounded to the nearest 0.25 D, the axis to the nearest degree",
- source: src::ROUNDING_ORDER,
- },
+                &ORDER_ROUNDED,
                 || {
                     format!(
                         "{} → {}",
@@ -425,7 +419,7 @@ pub(super) fn compute(
                         sphcyl(&rounded).display()
                     )
                 },
-)
+            )
             .caution = Some(src::CAUTION_ORDER);
         }
     }
@@ -614,12 +608,9 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
         "centre thickness of the lens edged to the frame",
         V::Length { metres: f.centre },
         e.span,
-        &Method {
- formula: "minus: centre = minimum; plus: centre = edge + s_front − s_back, at the farthest point",
- source: src::SAG,
- },
+        &EDGED_THICKNESS_CENTRE,
         why,
-);
+    );
     out.push(
         "edged-thickness-edge",
         "edge thickness at the farthest point of the edged lens (strongest meridian)",
@@ -879,17 +870,16 @@ pub(super) fn compute_frame(
             "recommended optical-centre height above the lowest point of the rim",
             V::Length { metres: h },
             f.fitting_height.as_ref().map_or(f.span, |h| h.span),
-            &Method {
- formula: "OC height = fitting height − optical-centre drop (0.5 mm per degree of pantoscopic tilt)",
- source: src::OC_HEIGHT,
- },
-            || format!(
-                "{} mm − {} mm = {} mm",
-                n4((h + drop) * 1000.0),
-                n4(drop * 1000.0),
-                n4(h * 1000.0)
-            ),
-);
+            &OC_HEIGHT,
+            || {
+                format!(
+                    "{} mm − {} mm = {} mm",
+                    n4((h + drop) * 1000.0),
+                    n4(drop * 1000.0),
+                    n4(h * 1000.0)
+                )
+            },
+        );
     }
     // Only the first frame carries the pair's values (lenses are fitted in it).
     if !first_frame(case).is_some_and(|ff| std::ptr::eq(ff, f)) {
@@ -1068,12 +1058,9 @@ fn mounted_pair(
         "net horizontal prism of the received pair at the pupils",
         self::horizontal(horizontal),
         span,
-        &Method {
- formula: "P_h(right) + P_h(left), base in +, P = −F_measured·c plus measured − ordered prism",
- source: src::MOUNTED_PAIR,
- },
+        &MOUNTED_HORIZONTAL_IMBALANCE,
         || why("base in +", pr.base_in, pl.base_in, horizontal),
-);
+    );
     let checks = [
         (
             "check-mounted-vertical",
@@ -1148,12 +1135,9 @@ fn mounted_pair(
                 .into(),
             },
             span,
-            &Method {
- formula: "ANSI Z80.1-2015 mounted pair: vertical ≤ 0.33Δ (≤ 3.375 D), horizontal ≤ 0.67Δ (≤ 2.75 D)",
- source: src::MOUNTED_PAIR,
- },
+            &MOUNTED_PAIR_TOLERANCE,
             || detail,
-);
+        );
         if pass == Some(false) {
             diags.push(
                 Diagnostic::new(
@@ -1171,3 +1155,49 @@ fn mounted_pair(
         }
     }
 }
+
+/// The method of one value of this module (kept apart: its formula is too
+/// long for a call site).
+const COMPENSATED_ORDER: Method = Method {
+    formula: "F = Aᵀ·F_rx·A/(1 + sin²γ/2n), F_rx moved to the frame's vertex by F' = F/(1 − d·F)",
+    source: src::TILT_MATRIX,
+};
+
+/// The method of one value of this module (kept apart: its formula is too
+/// long for a call site).
+const ORDER_ROUNDED: Method = Method {
+    formula:
+        "sphere and cylinder each rounded to the nearest 0.25 D, the axis to the nearest degree",
+    source: src::ROUNDING_ORDER,
+};
+
+/// The method of one value of this module (kept apart: its formula is too
+/// long for a call site).
+const EDGED_THICKNESS_CENTRE: Method = Method {
+    formula:
+        "minus: centre = minimum; plus: centre = edge + s_front − s_back, at the farthest point",
+    source: src::SAG,
+};
+
+/// The method of one value of this module (kept apart: its formula is too
+/// long for a call site).
+const OC_HEIGHT: Method = Method {
+    formula:
+        "OC height = fitting height − optical-centre drop (0.5 mm per degree of pantoscopic tilt)",
+    source: src::OC_HEIGHT,
+};
+
+/// The method of one value of this module (kept apart: its formula is too
+/// long for a call site).
+const MOUNTED_HORIZONTAL_IMBALANCE: Method = Method {
+    formula: "P_h(right) + P_h(left), base in +, P = −F_measured·c plus measured − ordered prism",
+    source: src::MOUNTED_PAIR,
+};
+
+/// The method of one value of this module (kept apart: its formula is too
+/// long for a call site).
+const MOUNTED_PAIR_TOLERANCE: Method = Method {
+    formula:
+        "ANSI Z80.1-2015 mounted pair: vertical ≤ 0.33Δ (≤ 3.375 D), horizontal ≤ 0.67Δ (≤ 2.75 D)",
+    source: src::MOUNTED_PAIR,
+};
