@@ -524,8 +524,7 @@ fn keratometry(
     }
 }
 
-/// The method of one value of this module (kept apart: its formula is too
-/// long for a call site).
+/// How a vertex-transferred refraction is rounded for ordering.
 const ROUNDED_TO_QUARTERS: Method = Method {
     formula:
         "sphere and cylinder each rounded to the nearest 0.25 D, the axis to the nearest degree",

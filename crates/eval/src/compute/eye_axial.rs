@@ -58,8 +58,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
     .caution = Some(src::CAUTION_MODEL);
 }
 
-/// The method of one value of this module (kept apart: its formula is too
-/// long for a call site).
+/// Relative spectacle magnification of an eye block, through Emsley's reduced eye.
 const RSM_REDUCED_EYE: Method = Method {
     formula: "K = M/(1 − d₀·M); F_e = n'/AL − K (n' = 4/3); F_s = K/(1 + d·K); RSM = F_e / (F_e + F_s − d·F_s·F_e)",
     source: src::RELATIVE_SPECTACLE_MAGNIFICATION,

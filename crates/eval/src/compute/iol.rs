@@ -149,8 +149,7 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
     }
 }
 
-/// The method of one value of this module (kept apart: its formula is too
-/// long for a call site).
+/// The SRK/T intraocular lens power for the target refraction.
 const SRKT_POWER: Method = Method {
     formula: "SRK/T (Retzlaff, Sanders & Kraff 1990), V = 12 mm, target terms with minus signs",
     source: src::SRKT,

@@ -259,22 +259,19 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
     }
 }
 
-/// The method of one value of this module (kept apart: its formula is too
-/// long for a call site).
+/// A schematic eye's cardinal points from its system matrix.
 const CARDINAL_POINTS: Method = Method {
     formula: "cardinal points from the system matrix (n·D/C, n·(D − 1)/C, n'·(1 − A)/C, nodal = principal + (n' − n)/F)",
     source: src::MATRICES,
 };
 
-/// The method of one value of this module (kept apart: its formula is too
-/// long for a call site).
+/// A schematic eye's entrance pupil: the iris imaged through the cornea.
 const ENTRANCE_PUPIL_TRACE: Method = Method {
     formula: "iris at the front of the lens traced back through the cornea: L' = L + F at each surface, L ← L'/(1 − (d/n)·L') across each gap",
     source: src::ENTRANCE_PUPIL,
 };
 
-/// The method of one value of this module (kept apart: its formula is too
-/// long for a call site).
+/// Relative spectacle magnification of a schematic eye.
 const RSM_MODEL_EYE: Method = Method {
     formula:
         "RSM = F_e / (F_e + F_s − d·F_s·F_e), d = vertex distance + cornea to first principal point",

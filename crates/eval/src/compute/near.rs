@@ -153,8 +153,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
     }
 }
 
-/// The method of one value of this module (kept apart: its formula is too
-/// long for a call site).
+/// The range of clear vision through a reading addition.
 const CLEAR_RANGE_THROUGH_ADD: Method = Method {
     formula: "far end 1/add, near end 1/(add + A), distance correction worn, mean amplitude",
     source: src::HOFSTETTER,

@@ -1156,46 +1156,40 @@ fn mounted_pair(
     }
 }
 
-/// The method of one value of this module (kept apart: its formula is too
-/// long for a call site).
+/// The power to order so that the lens gives the prescription as worn.
 const COMPENSATED_ORDER: Method = Method {
     formula: "F = Aᵀ·F_rx·A/(1 + sin²γ/2n), F_rx moved to the frame's vertex by F' = F/(1 − d·F)",
     source: src::TILT_MATRIX,
 };
 
-/// The method of one value of this module (kept apart: its formula is too
-/// long for a call site).
+/// How the compensated order is rounded.
 const ORDER_ROUNDED: Method = Method {
     formula:
         "sphere and cylinder each rounded to the nearest 0.25 D, the axis to the nearest degree",
     source: src::ROUNDING_ORDER,
 };
 
-/// The method of one value of this module (kept apart: its formula is too
-/// long for a call site).
+/// Centre thickness of an edged lens: the minimum for minus lenses, from the sags and the edge for plus lenses.
 const EDGED_THICKNESS_CENTRE: Method = Method {
     formula:
         "minus: centre = minimum; plus: centre = edge + s_front − s_back, at the farthest point",
     source: src::SAG,
 };
 
-/// The method of one value of this module (kept apart: its formula is too
-/// long for a call site).
+/// Optical-centre height: the fitting height less the drop for pantoscopic tilt.
 const OC_HEIGHT: Method = Method {
     formula:
         "OC height = fitting height − optical-centre drop (0.5 mm per degree of pantoscopic tilt)",
     source: src::OC_HEIGHT,
 };
 
-/// The method of one value of this module (kept apart: its formula is too
-/// long for a call site).
+/// Horizontal prism imbalance of a mounted pair.
 const MOUNTED_HORIZONTAL_IMBALANCE: Method = Method {
     formula: "P_h(right) + P_h(left), base in +, P = −F_measured·c plus measured − ordered prism",
     source: src::MOUNTED_PAIR,
 };
 
-/// The method of one value of this module (kept apart: its formula is too
-/// long for a call site).
+/// The tolerance a mounted pair is checked against.
 const MOUNTED_PAIR_TOLERANCE: Method = Method {
     formula:
         "ANSI Z80.1-2015 mounted pair: vertical ≤ 0.33Δ (≤ 3.375 D), horizontal ≤ 0.67Δ (≤ 2.75 D)",
