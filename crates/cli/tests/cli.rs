@@ -264,16 +264,7 @@ fn human_output_ends_with_the_caution_unless_quiet() {
 fn eval_json_lists_the_full_evaluation_in_order() {
     let mut inputs: Vec<(String, String)> = Vec::new();
     for dir in ["tests/fixtures/parse/valid", "tests/fixtures/parse/invalid"] {
-        let mut paths: Vec<_> = std::fs::read_dir(PathBuf::from(ROOT).join(dir))
-            .expect("fixture folder")
-            .map(|e| e.expect("entry").path())
-            .filter(|p| p.extension().is_some_and(|x| x == "parax"))
-            .collect();
-        paths.sort();
-        for p in paths {
-            let rel = format!("{dir}/{}", p.file_name().unwrap().to_string_lossy());
-            inputs.push((rel, std::fs::read_to_string(&p).expect("fixture")));
-        }
+        inputs.extend(parax_testdata::case_files_in(dir));
     }
     for rel in EXAMPLES
         .iter()

@@ -16,26 +16,11 @@ use proptest::prelude::*;
 use std::path::Path;
 
 fn files() -> Vec<String> {
-    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("../..");
     let mut out = vec![
         // Invented data: two blocks with the same id (undated right eye twice).
         "case \"dup\"\n  age 40\n\neye right\n  refraction -1.00 / -0.50 x 90\n  expect spherical-equivalent -1.25 D\n\neye left\n  refraction +1.00\n\neye right\n  refraction -2.00\n  expect spherical-equivalent -2.00 D\n".to_owned(),
     ];
-    for dir in [
-        "examples",
-        "tests/fixtures/parse/valid",
-        "tests/fixtures/parse/invalid",
-    ] {
-        let mut paths: Vec<_> = std::fs::read_dir(root.join(dir))
-            .expect("fixture dir")
-            .map(|e| e.expect("entry").path())
-            .filter(|p| p.extension().is_some_and(|x| x == "parax"))
-            .collect();
-        paths.sort();
-        for p in paths {
-            out.push(std::fs::read_to_string(p).expect("fixture"));
-        }
-    }
+    out.extend(parax_testdata::case_texts());
     out
 }
 
@@ -232,8 +217,8 @@ proptest! {
         let files = files();
         let mut text = files[file.index(files.len())].clone();
         for (at, len, pieces) in edits {
-            let start = text.floor_char_boundary(at.index(text.len() + 1));
-            let end = text.floor_char_boundary(start + len);
+            let std::ops::Range { start, end } =
+                parax_testdata::edit_range(&text, at.index(text.len() + 1), len);
             let insert: String = pieces.iter().map(|&i| PIECES[i]).collect();
             text.replace_range(start..end, &insert);
         }

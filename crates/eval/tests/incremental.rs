@@ -15,7 +15,6 @@ use parax_eval::{
 use parax_syntax::Span;
 use parax_syntax::{parse, reparse};
 use proptest::prelude::*;
-use std::path::Path;
 
 /// Invented visits (no real patient): dated eye blocks of both eyes, some on
 /// the same day (anisometropia), a frame (vertex) and a case block (age).
@@ -40,18 +39,13 @@ fn visits() -> String {
 }
 
 fn files() -> Vec<String> {
-    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("../..");
     let mut out = vec![visits()];
     for dir in ["examples", "tests/fixtures/parse/valid"] {
-        let mut paths: Vec<_> = std::fs::read_dir(root.join(dir))
-            .expect("fixture dir")
-            .map(|e| e.expect("entry").path())
-            .filter(|p| p.extension().is_some_and(|x| x == "parax"))
-            .collect();
-        paths.sort();
-        for p in paths {
-            out.push(std::fs::read_to_string(p).expect("fixture"));
-        }
+        out.extend(
+            parax_testdata::case_files_in(dir)
+                .into_iter()
+                .map(|(_, text)| text),
+        );
     }
     out
 }
@@ -107,8 +101,8 @@ proptest! {
         // Values only, derivations written on demand.
         let mut quiet = parax_eval::evaluate_incremental_with(&parsed, None, EvalOptions::VALUES_ONLY);
         for (at, len, pieces) in edits {
-            let start = text.floor_char_boundary(at.index(text.len() + 1));
-            let end = text.floor_char_boundary(start + len);
+            let std::ops::Range { start, end } =
+                parax_testdata::edit_range(&text, at.index(text.len() + 1), len);
             let insert: String = pieces.iter().map(|&i| PIECES[i]).collect();
             parsed = reparse(&parsed, start..end, &insert);
             text.replace_range(start..end, &insert);

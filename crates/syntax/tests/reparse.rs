@@ -4,28 +4,9 @@
 
 use parax_syntax::{parse, reparse, Parsed};
 use proptest::prelude::*;
-use std::path::Path;
 
 fn fixtures() -> Vec<String> {
-    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("../..");
-    let mut out = Vec::new();
-    for dir in [
-        "tests/fixtures/parse/valid",
-        "tests/fixtures/parse/invalid",
-        "examples",
-    ] {
-        let mut paths: Vec<_> = std::fs::read_dir(root.join(dir))
-            .expect("fixture dir")
-            .map(|e| e.expect("entry").path())
-            .filter(|p| p.extension().is_some_and(|x| x == "parax"))
-            .collect();
-        paths.sort();
-        for p in paths {
-            out.push(std::fs::read_to_string(p).expect("fixture"));
-        }
-    }
-    assert!(out.len() >= 20, "fixtures found: {}", out.len());
-    out
+    parax_testdata::case_texts()
 }
 
 /// Pieces of text an edit inserts: line structure (breaks, indentation, headers
@@ -78,8 +59,8 @@ proptest! {
         let mut text = files[file.index(files.len())].clone();
         let mut parsed = parse(&text);
         for (at, len, pieces) in edits {
-            let start = text.floor_char_boundary(at.index(text.len() + 1));
-            let end = text.floor_char_boundary(start + len);
+            let std::ops::Range { start, end } =
+                parax_testdata::edit_range(&text, at.index(text.len() + 1), len);
             let insert: String = pieces.iter().map(|&i| PIECES[i]).collect();
             parsed = reparse(&parsed, start..end, &insert);
             text.replace_range(start..end, &insert);
