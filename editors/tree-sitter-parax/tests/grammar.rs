@@ -9,7 +9,7 @@
 //!   give a tree without ERROR or MISSING nodes; a line pest rejects must lie
 //!   under an ERROR node, and lines tree-sitter reads cleanly must agree with pest.
 //! * The corpus (`test/corpus/*.txt`, the tree-sitter CLI's test format) is run
-//!   here as well, so CI needs no generator: each input's tree must print as the
+//!   here as well, so `cargo test` needs no generator: each input's tree must print as the
 //!   S-expression recorded under it.
 //! * The highlight queries compile, and give the captures expected on a snippet.
 //!
