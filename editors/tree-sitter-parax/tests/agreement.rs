@@ -86,15 +86,7 @@ fn tail() -> impl Strategy<Value = String> {
 }
 
 fn line() -> impl Strategy<Value = String> {
-    let kinds = vec![
-        "case",
-        "eye",
-        "frame",
-        "spectacle-lens",
-        "contact-lens",
-        "system",
-        "model-eye",
-    ];
+    let kinds: Vec<&str> = parax_syntax::BlockKind::ALL.map(|k| k.keyword()).to_vec();
     let keywords = vec![
         "refraction",
         "add",
