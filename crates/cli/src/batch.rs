@@ -8,6 +8,7 @@
 
 use crate::files;
 use indicatif::{ProgressBar, ProgressStyle};
+use parax_eval::blocks::{eye, system};
 use parax_eval::{evaluate_source_with, Derived, DerivedValue, EvalOptions, Severity};
 use rayon::prelude::*;
 use serde::Serialize;
@@ -86,24 +87,30 @@ fn block_of(d: &Derived) -> &str {
 fn fill(row: &mut Row, d: &Derived) {
     use DerivedValue as V;
     match (&*d.name, &d.value) {
-        ("spherical-equivalent", V::Power { dioptres }) => row.m = Some(*dioptres),
-        ("vector-j0", V::Power { dioptres }) => row.j0 = Some(*dioptres),
-        ("vector-j45", V::Power { dioptres }) => row.j45 = Some(*dioptres),
-        ("mean-k", V::Power { dioptres }) => row.mean_k = Some(*dioptres),
-        ("corneal-cylinder", V::Cylinder { dioptres, axis }) => {
+        (eye::keys::SPHERICAL_EQUIVALENT, V::Power { dioptres }) => row.m = Some(*dioptres),
+        (eye::keys::VECTOR_J0, V::Power { dioptres }) => row.j0 = Some(*dioptres),
+        (eye::keys::VECTOR_J45, V::Power { dioptres }) => row.j45 = Some(*dioptres),
+        (eye::keys::MEAN_K, V::Power { dioptres }) => row.mean_k = Some(*dioptres),
+        (eye::keys::CORNEAL_CYLINDER, V::Cylinder { dioptres, axis }) => {
             row.corneal_cylinder = Some(*dioptres);
             row.corneal_cylinder_axis = Some(*axis);
         }
-        ("equivalent-power", V::Power { dioptres }) => row.equivalent_power = Some(*dioptres),
-        ("back-vertex-power", V::Power { dioptres }) => row.back_vertex_power = Some(*dioptres),
-        ("front-vertex-power", V::Power { dioptres }) => row.front_vertex_power = Some(*dioptres),
-        ("image", V::Distance { metres, from }) => {
+        (system::keys::EQUIVALENT_POWER, V::Power { dioptres }) => {
+            row.equivalent_power = Some(*dioptres)
+        }
+        (system::keys::BACK_VERTEX_POWER, V::Power { dioptres }) => {
+            row.back_vertex_power = Some(*dioptres)
+        }
+        (system::keys::FRONT_VERTEX_POWER, V::Power { dioptres }) => {
+            row.front_vertex_power = Some(*dioptres)
+        }
+        (system::keys::IMAGE, V::Distance { metres, from }) => {
             row.image_m = Some(*metres);
             row.image_from = Some(from.to_string());
         }
-        ("image", V::Infinity) => row.image_from = Some("infinity".into()),
-        ("magnification", V::Number { value }) => row.magnification = Some(*value),
-        ("image-kind", V::Text { text }) => row.image_kind = Some(text.to_string()),
+        (system::keys::IMAGE, V::Infinity) => row.image_from = Some("infinity".into()),
+        (system::keys::MAGNIFICATION, V::Number { value }) => row.magnification = Some(*value),
+        (system::keys::IMAGE_KIND, V::Text { text }) => row.image_kind = Some(text.to_string()),
         _ => {}
     }
 }
@@ -147,8 +154,7 @@ pub fn rows_of(path: &Path) -> Vec<Row> {
             let kind = block.split('.').next().unwrap_or_default();
             let eye = ev
                 .case
-                .eyes
-                .iter()
+                .eyes()
                 .find(|e| block.strip_prefix("eye.") == Some(e.side.name()));
             let eye_date = eye.and_then(|e| e.date.clone());
             // The refraction as recorded (minus-cylinder form as written).

@@ -36,32 +36,12 @@ fn check_one(
             Severity::Info => 2,
         }] += 1;
     }
-    let expects = ev.case.eyes.iter().map(|e| e.expects.len()).sum::<usize>()
-        + ev.case
-            .systems
-            .iter()
-            .map(|s| s.expects.len())
-            .sum::<usize>()
-        + ev.case
-            .frames
-            .iter()
-            .map(|f| f.expects.len())
-            .sum::<usize>()
-        + ev.case
-            .spectacle_lenses
-            .iter()
-            .map(|l| l.expects.len())
-            .sum::<usize>()
-        + ev.case
-            .contact_lenses
-            .iter()
-            .map(|c| c.expects.len())
-            .sum::<usize>()
-        + ev.case
-            .model_eyes
-            .iter()
-            .map(|m| m.expects.len())
-            .sum::<usize>();
+    let expects = ev
+        .case
+        .blocks
+        .iter()
+        .map(|b| b.expects().len())
+        .sum::<usize>();
     Ok(match format {
         Format::Human => (
             Checked {

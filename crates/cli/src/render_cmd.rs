@@ -10,6 +10,7 @@ use parax_diagram::{
     lens_system_svg, power_cross_svg, Arrow, ArrowRole, LensDiagram, LensMark, MeridianMark,
     PowerCross,
 };
+use parax_eval::blocks::eye::keys;
 use parax_eval::model::{ObjectAt, System, SystemElement};
 use parax_eval::{evaluate_source_with, slug, DerivedValue, EvalOptions};
 use parax_optics::system::{ray_heights, trace, Element, ImagePlace, Object};
@@ -159,7 +160,7 @@ pub fn run(path: &Path, out: &Path) -> u8 {
         .map_or("stdin".into(), |s| s.to_string_lossy().into_owned());
     let mut written = Vec::new();
     let mut pictures: Vec<(String, String)> = Vec::new();
-    for s in &ev.case.systems {
+    for s in ev.case.systems() {
         if let Some(d) = system_diagram(s) {
             pictures.push((
                 format!("{stem}.system.{}.svg", slug(&s.name)),
@@ -167,7 +168,7 @@ pub fn run(path: &Path, out: &Path) -> u8 {
             ));
         }
     }
-    for e in &ev.case.eyes {
+    for e in ev.case.eyes() {
         let side = e.side.name();
         let find = |name: &str| {
             ev.derived
@@ -185,9 +186,9 @@ pub fn run(path: &Path, out: &Path) -> u8 {
             }),
             _ => None,
         };
-        if let (Some(a), Some(b)) = (meridian("meridian-1"), meridian("meridian-2")) {
-            let rx = find("minus-cyl")
-                .or_else(|| find("spherical-equivalent"))
+        if let (Some(a), Some(b)) = (meridian(keys::MERIDIAN_1), meridian(keys::MERIDIAN_2)) {
+            let rx = find(keys::MINUS_CYL)
+                .or_else(|| find(keys::SPHERICAL_EQUIVALENT))
                 .map_or(String::new(), |d| d.text());
             pictures.push((
                 format!("{stem}.eye.{side}.svg"),

@@ -6,6 +6,7 @@
 use crate::batch::evaluate_all_with;
 use crate::files;
 use crate::render::human;
+use parax_eval::blocks::eye::keys;
 use parax_eval::model::Side;
 use parax_eval::{evaluate_source_each, DerivedValue, EvalOptions, Severity, GENERAL_CAUTION};
 use parax_optics::cohort::{summarize, CohortSummary};
@@ -59,7 +60,7 @@ fn samples_of(path: &Path, group_by: GroupBy) -> Result<Vec<Sample>, String> {
                     d.block.starts_with("eye.")
                         && matches!(
                             &*d.name,
-                            "spherical-equivalent" | "vector-j0" | "vector-j45"
+                            keys::SPHERICAL_EQUIVALENT | keys::VECTOR_J0 | keys::VECTOR_J45
                         )
                 })
                 .cloned(),
@@ -83,12 +84,12 @@ fn samples_of(path: &Path, group_by: GroupBy) -> Result<Vec<Sample>, String> {
     };
     let info = &ev.case.info;
     let mut out = Vec::new();
-    for eye in &ev.case.eyes {
+    for eye in ev.case.eyes() {
         let side = eye.side.name();
         let (Some(m), Some(j0), Some(j45)) = (
-            power(&format!("eye.{side}.spherical-equivalent")),
-            power(&format!("eye.{side}.vector-j0")),
-            power(&format!("eye.{side}.vector-j45")),
+            power(&format!("eye.{side}.{}", keys::SPHERICAL_EQUIVALENT)),
+            power(&format!("eye.{side}.{}", keys::VECTOR_J0)),
+            power(&format!("eye.{side}.{}", keys::VECTOR_J45)),
         ) else {
             continue;
         };

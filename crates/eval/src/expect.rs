@@ -9,120 +9,9 @@ use crate::model::{Expect, ExpectToken as T};
 use parax_syntax::suggest::did_you_mean;
 
 /// Names a block of this id can compute (for "did you mean" and to tell an unknown
-/// name from one that this case's inputs do not reach).
+/// name from one that this case's inputs do not reach): its block module's keys.
 fn possible_names(block: &str) -> &'static [&'static str] {
-    if block.starts_with("eye.") {
-        &[
-            "minus-cyl",
-            "plus-cyl",
-            "spherical-equivalent",
-            "vector-j0",
-            "vector-j45",
-            "blur-strength",
-            "meridian-1",
-            "meridian-2",
-            "far-point-1",
-            "far-point-2",
-            "corneal-plane",
-            "corneal-plane-rounded",
-            "at-frame-vertex",
-            "at-frame-vertex-rounded",
-            "near-refraction",
-            "k-flat",
-            "k-steep",
-            "mean-k",
-            "corneal-cylinder",
-            "corneal-astigmatism",
-            "total-corneal-power",
-            "keratometric-excess",
-            "amplitude-min",
-            "amplitude-mean",
-            "amplitude-max",
-            "add-suggested",
-            "clear-far",
-            "clear-near",
-            "near-point-1",
-            "near-point-2",
-            "anisometropia",
-            "anisometropia-180",
-            "anisometropia-90",
-            "change-m",
-            "change-j0",
-            "change-j45",
-            "change-years",
-            "change-m-per-year",
-            "change-blur-per-year",
-            "iol-acd-estimate",
-            "iol-power-srkt",
-            "iol-power-vergence",
-            "iol-predicted-refraction",
-            "relative-spectacle-magnification",
-        ]
-    } else if block.starts_with("system.") {
-        &[
-            "image",
-            "magnification",
-            "image-kind",
-            "equivalent-power",
-            "back-vertex-power",
-            "front-vertex-power",
-        ]
-    } else if block.starts_with("spectacle-lens.") {
-        &[
-            "as-worn",
-            "compensated",
-            "compensated-rounded",
-            "distance-prism-horizontal",
-            "reading-prism-vertical",
-            "reading-prism-horizontal",
-            "thickness-centre",
-            "thickness-edge",
-            "magnification",
-            "check-sphere",
-            "check-cylinder",
-            "check-axis",
-            "check-add",
-            "check-prism",
-            "verification",
-        ]
-    } else if block == "frame" || block.starts_with("frame.") {
-        &[
-            "oc-drop",
-            "reading-vertical-imbalance",
-            "distance-horizontal-prism",
-            "aniseikonia",
-        ]
-    } else if block.starts_with("contact-lens.") {
-        &[
-            "corneal-plane",
-            "soft-design",
-            "soft-power",
-            "tear-lens",
-            "rigid-power",
-            "rigid-power-rounded",
-            "residual-astigmatism",
-        ]
-    } else if block.starts_with("model-eye.") {
-        &[
-            "power",
-            "cornea-power",
-            "lens-power",
-            "front-focal",
-            "front-principal",
-            "back-principal",
-            "front-nodal",
-            "back-nodal",
-            "back-focal",
-            "axial-length",
-            "ocular-refraction",
-            "spectacle-refraction",
-            "entrance-pupil",
-            "entrance-pupil-magnification",
-            "relative-spectacle-magnification",
-        ]
-    } else {
-        &[]
-    }
+    crate::blocks::kind_of_id(block).map_or(&[], crate::blocks::value_names)
 }
 
 /// Check the `expect` lines of block `block` against `derived`.
@@ -136,7 +25,7 @@ pub fn check(block: &str, expects: &[Expect], derived: &[Derived], diags: &mut V
                 .map(|d| &*d.name)
                 .collect();
             let per_lens = e.name.contains('.')
-                && ["image", "magnification", "vergence-in", "vergence-out"]
+                && crate::blocks::system::keys::PER_ELEMENT
                     .iter()
                     .any(|s| e.name.ends_with(&format!(".{s}")));
             if possible_names(block).contains(&e.name.as_str()) || per_lens {

@@ -2,36 +2,40 @@
 //! blocks the edit touched rather than to the file.
 //!
 //! The previous evaluation keeps, per top-level block, the block's text and
-//! where it stood; the new blocks are lined up with the old ones by the longest
-//! run of identical blocks at the start of the file and at its end (an edit
-//! leaves everything before it in place and moves everything after it by the
-//! same number of bytes). Only the blocks in between are read again.
+//! where it stood, and per block of the model ([`crate::model::Block`]) its
+//! computed result; the new blocks are lined up with the old ones by the
+//! longest run of identical blocks at the start of the file and at its end (an
+//! edit leaves everything before it in place and moves everything after it by
+//! the same number of bytes). Only the blocks in between are read again.
 //!
-//! * **Reading (lowering).** An `eye` block whose text is unchanged keeps its
-//!   lowered [`Eye`] and the diagnostics of reading it, moved to where the block
-//!   stands now. Other blocks (the `case` block, frames, lenses, systems: few and
-//!   short) are read again every time.
-//! * **Computing.** The values of an eye block are a function of its own text,
-//!   of the text of every block that is not an eye block (`case`, frames), and
-//!   of its partner (the other eye of the same visit) and of its previous
-//!   visit. An eye's values are reused when its block, its partner's block and
-//!   its previous visit's block are all unchanged and are the same blocks as
-//!   before, and the other blocks' text is unchanged; cross-block values (the
-//!   eyes compared, lenses fitted to eyes, the frame) are thus recomputed
-//!   whenever one of their inputs changed. The other blocks' values are
-//!   computed again every time.
+//! * **Reading.** An `eye` block whose text is unchanged keeps its model and
+//!   the diagnostics of reading it, moved to where the block stands now. Other
+//!   blocks (the `case` block, frames, lenses, systems: few and short) are read
+//!   again every time.
+//! * **Computing.** The values of a block are a function of its own text and
+//!   of the blocks it depends on ([`crate::blocks::Context`]): for an eye block,
+//!   the text of every block that is not an eye block (`case`, frames, lenses)
+//!   and its partner (the other eye of the same visit) and previous visit. An
+//!   eye's values are reused when its block, its partner's block and its
+//!   previous visit's block are all unchanged and are the same blocks as
+//!   before, and the other blocks' text is unchanged. Every other block is
+//!   computed again every time (its values depend on the eyes).
 //!
-//! Texts are compared in full (no hashes), so a reused result is the one a full
-//! evaluation would compute; a property test checks that
-//! [`evaluate_incremental`] equals [`crate::evaluate`]. A result that points
-//! outside its own block is never reused. What is left proportional to the
-//! file is plain bookkeeping: comparing block texts (memory comparisons), moving
-//! the spans after the edit, and indexing visits by side and date.
+//! Every mode runs the same per-block steps ([`crate::lower::read_block`],
+//! [`crate::blocks::compute`], [`crate::expect::check`]); this module only
+//! decides which results to keep. Texts are compared in full (no hashes), so a
+//! reused result is the one a full evaluation would compute; a property test
+//! checks that [`evaluate_incremental`] equals [`crate::evaluate`]. A result
+//! that points outside its own block is never reused. What is left
+//! proportional to the file is plain bookkeeping: comparing block texts
+//! (memory comparisons), moving the spans after the edit, and looking up what
+//! the blocks depend on.
 
-use crate::compute::{self, Visits};
+use crate::blocks::{self, Context};
+use crate::compute::Visits;
 use crate::derived::Derived;
 use crate::diagnostic::Diagnostic;
-use crate::model::{At, Case, Expect, ExpectToken, Eye};
+use crate::model::{At, Block, Case, Expect, ExpectToken, Eye};
 use crate::{expect, from_syntax, lower, EvalOptions, Evaluation};
 use parax_syntax::{BlockKind, Parsed, Span};
 use std::collections::HashMap;
@@ -44,21 +48,21 @@ struct BlockMemo {
     text: String,
     /// Where it started.
     start: usize,
-    /// For an eye block: the index in `case.eyes` of the eye read from it
-    /// (`None` when its header could not be read).
-    eye: Option<usize>,
+    /// The index in `case.blocks` of the model read from it (`None` for the
+    /// `case` block and for a block whose header could not be read).
+    model: Option<usize>,
     /// For an eye block: the diagnostics of reading it.
     diags: Vec<Diagnostic>,
     /// False when reading it gave a span outside the block (read it again).
     reusable: bool,
 }
 
-/// One eye block's computed result, kept for the next evaluation.
+/// One model block's computed result, kept for the next evaluation.
 #[derive(Debug, Clone)]
-struct EyeMemo {
-    /// The block's span.
+struct ValuesMemo {
+    /// The span of the top-level block it was read from.
     span: Span,
-    /// Its partner and its previous visit (indices in `case.eyes`).
+    /// For an eye: its partner and its previous visit (indices in `case.blocks`).
     partner: Option<usize>,
     previous: Option<usize>,
     /// Its values in [`Evaluation::derived`].
@@ -84,13 +88,12 @@ pub(crate) struct Memo {
     context: String,
     /// Every top-level block, in file order.
     blocks: Vec<BlockMemo>,
-    /// One per eye in `case.eyes`.
-    eyes: Vec<EyeMemo>,
-    /// How many eyes have each block id (ids must be unique to reuse results).
+    /// One per block of `case.blocks`.
+    values: Vec<ValuesMemo>,
+    /// How many blocks have each block id (ids must be unique to reuse results).
     ids: HashMap<String, usize>,
-    /// Indices of the values that are not inside their eye block (the other
-    /// blocks' values and those of eyes whose values point elsewhere), ordered
-    /// by (start, index).
+    /// Indices of the values that are not inside their block, ordered by
+    /// (start, index).
     loose: Vec<usize>,
 }
 
@@ -141,8 +144,8 @@ fn move_at<T>(a: &mut Option<At<T>>, by: isize) {
 
 fn move_expect(x: &mut Expect, by: isize) {
     x.name_span = x.name_span.moved(by);
-    x.value_span = x.value_span.map(|s| s.moved(by));
     x.span = x.span.moved(by);
+    x.value_span = x.value_span.map(|s| s.moved(by));
     for t in &mut x.tokens {
         if let ExpectToken::Number { span, .. } = t {
             *span = span.moved(by);
@@ -246,6 +249,60 @@ pub fn evaluate_edit_with(
     evaluate_with(parsed, previous, Some((edit, inserted)), options)
 }
 
+/// An eye's side, date and whether it has a refraction.
+type VisitShape<'a> = (crate::model::Side, Option<&'a str>, bool);
+
+/// What [`Visits`] tells about one eye: same side, date and presence of a
+/// refraction (for a block that is not an eye, its kind).
+fn visit_shape(b: &Block) -> (BlockKind, Option<VisitShape<'_>>) {
+    match b {
+        Block::Eye(e) => (
+            BlockKind::Eye,
+            Some((e.side, e.date.as_deref(), e.refraction.is_some())),
+        ),
+        other => (other.kind(), None),
+    }
+}
+
+/// Visits indexed only with eye `i`, its partner and its previous visit.
+fn local_visits(
+    case: &Case,
+    i: usize,
+    partner: Option<usize>,
+    previous: Option<usize>,
+) -> Visits<'_> {
+    let mut these: Vec<usize> = [Some(i), partner, previous].into_iter().flatten().collect();
+    these.sort_unstable();
+    these.dedup();
+    Visits::of(case, these)
+}
+
+/// Which old model block a new one is, when it is unchanged: the models before
+/// the changed blocks keep their index, those after them move by `shift`.
+struct Lineup {
+    before: usize,
+    /// End of the changed models, new numbering.
+    after: usize,
+    /// End of the changed models, old numbering.
+    old_after: usize,
+}
+
+impl Lineup {
+    fn old(&self, i: usize) -> Option<usize> {
+        if i < self.before {
+            Some(i)
+        } else if i >= self.after {
+            Some(i - self.after + self.old_after)
+        } else {
+            None
+        }
+    }
+
+    fn changed(&self, i: usize) -> bool {
+        (self.before..self.after).contains(&i)
+    }
+}
+
 fn evaluate_with(
     parsed: &Parsed,
     previous: Option<Evaluation>,
@@ -258,19 +315,21 @@ fn evaluate_with(
         context.push_str(parsed.text(b.span));
         context.push('\0');
     }
-    let (old_eyes, old_derived, memo) = match previous {
-        Some(p) if p.memo.kept && p.memo.values_only != explain => (p.case.eyes, p.derived, p.memo),
+    let (old_models, old_derived, memo) = match previous {
+        Some(p) if p.memo.kept && p.memo.values_only != explain => {
+            (p.case.blocks, p.derived, p.memo)
+        }
         _ => Default::default(),
     };
     let Memo {
         len: old_len,
         context: old_context,
         blocks: mut old_blocks,
-        eyes: mut old_eye_memos,
+        values: mut old_values,
         mut ids,
         ..
     } = memo;
-    let compute_ok = old_context == context;
+    let compute_ok = old_context == context && old_values.len() == old_models.len();
     let new = &parsed.blocks;
     // Line the blocks up: `p` equal blocks at the start, `s` at the end.
     let delta = parsed.source.len() as isize - old_len as isize;
@@ -305,88 +364,117 @@ fn evaluate_with(
         s += 1;
     }
     let (old_mid, new_mid) = (p..old_blocks.len() - s, p..new.len() - s);
-    // The eyes of the blocks before and after the changed ones.
-    let eyes_before = old_blocks[..p]
+    // The models of the blocks before and after the changed ones.
+    let models_before = old_blocks[..p]
         .iter()
         .rev()
-        .find_map(|b| b.eye)
-        .map_or(0, |e| e + 1);
-    let eyes_after = old_blocks[old_mid.end..]
+        .find_map(|b| b.model)
+        .map_or(0, |m| m + 1);
+    let old_models_after = old_blocks[old_mid.end..]
         .iter()
-        .find_map(|b| b.eye)
-        .unwrap_or(old_eyes.len());
+        .find_map(|b| b.model)
+        .unwrap_or(old_models.len());
 
-    // Read the changed blocks (and every block that is not an eye block).
-    let mut diagnostics: Vec<Diagnostic> = parsed.errors.iter().map(from_syntax).collect();
-    let mut fresh = Case::default();
+    // Read the changed blocks (the `case` blocks come later, in file order).
+    let mut fresh: Vec<Block> = Vec::new();
+    let mut mid_diags: Vec<Vec<Diagnostic>> = Vec::with_capacity(new_mid.len());
     let mut mid_memos = Vec::with_capacity(new_mid.len());
-    for (k, b) in new.iter().enumerate() {
-        let reused = if k < p {
-            Some((k, 0))
-        } else if k >= new_mid.end {
-            Some((k - new_mid.end + old_mid.end, delta))
+    let mut scratch = crate::model::CaseInfo::default();
+    for b in &new[new_mid.clone()] {
+        let mut diags = Vec::new();
+        let mut model = None;
+        if b.kind != BlockKind::Case {
+            let kinds_before = |k: BlockKind| {
+                old_models[..models_before]
+                    .iter()
+                    .chain(&fresh)
+                    .filter(|m| m.kind() == k)
+                    .count()
+            };
+            if let Some(m) = lower::read_block(parsed, b, &mut scratch, &kinds_before, &mut diags) {
+                model = Some(models_before + fresh.len());
+                fresh.push(m);
+            }
+        }
+        let kept = if b.kind == BlockKind::Eye {
+            diags.clone()
         } else {
-            None
+            Vec::new()
         };
-        match reused {
-            Some((o, by)) if b.kind == BlockKind::Eye => {
-                diagnostics.extend(shifted(&old_blocks[o].diags, by));
-            }
-            _ => {
-                let first_diag = diagnostics.len();
-                let eyes = fresh.eyes.len();
-                lower::lower_block(parsed, b, &mut fresh, &mut diagnostics);
-                if reused.is_none() {
-                    let eye = (fresh.eyes.len() > eyes).then_some(eyes_before + eyes);
-                    let diags: Vec<Diagnostic> = if b.kind == BlockKind::Eye {
-                        diagnostics[first_diag..].to_vec()
-                    } else {
-                        Vec::new()
-                    };
-                    let reusable = diags.iter().all(|d| diag_inside(d, b.span));
-                    mid_memos.push(BlockMemo {
-                        text: parsed.text(b.span).to_owned(),
-                        start: b.span.start(),
-                        eye,
-                        diags,
-                        reusable,
-                    });
-                }
-            }
-        }
+        let reusable = kept.iter().all(|d| diag_inside(d, b.span));
+        mid_memos.push(BlockMemo {
+            text: parsed.text(b.span).to_owned(),
+            start: b.span.start(),
+            model,
+            diags: kept,
+            reusable,
+        });
+        mid_diags.push(diags);
     }
-    let new_eye_count = fresh.eyes.len();
-    let mut case_eyes = old_eyes;
-    let removed: Vec<Eye> = case_eyes
-        .splice(eyes_before..eyes_after, fresh.eyes.drain(..))
-        .collect();
-    let after = eyes_before + new_eye_count;
-    let eye_shift = new_eye_count as isize - (eyes_after - eyes_before) as isize;
-    if delta != 0 {
-        for e in &mut case_eyes[after..] {
-            move_eye(e, delta);
-        }
-    }
-    let case = Case {
-        eyes: case_eyes,
-        ..fresh
+    let lineup = Lineup {
+        before: models_before,
+        after: models_before + fresh.len(),
+        old_after: old_models_after,
     };
-
+    let shift = lineup.after as isize - old_models_after as isize;
+    let mut case = Case {
+        blocks: old_models,
+        ..Case::default()
+    };
+    let removed: Vec<Block> = case
+        .blocks
+        .splice(models_before..old_models_after, fresh)
+        .collect();
     // The blocks, updated the same way.
     old_blocks.splice(old_mid.clone(), mid_memos);
     for b in &mut old_blocks[new_mid.end..] {
         b.start = b.start.wrapping_add_signed(delta);
-        b.eye = b.eye.map(|e| e.wrapping_add_signed(eye_shift));
+        b.model = b.model.map(|m| m.wrapping_add_signed(shift));
         for d in &mut b.diags {
             shift_diag(d, delta);
         }
     }
     let blocks = old_blocks;
 
-    // Block ids must be unique: two eye blocks with the same id share their
-    // `expect` look-ups, so then everything is evaluated in full.
-    for e in &removed {
-        let id = compute::eye_block_id(e);
+    // Every block's reading diagnostics in file order: unchanged eye blocks
+    // keep theirs, the `case` blocks and the other unchanged blocks are read
+    // again (into their model's place).
+    let mut diagnostics: Vec<Diagnostic> = parsed.errors.iter().map(from_syntax).collect();
+    for (k, b) in new.iter().enumerate() {
+        if new_mid.contains(&k) && b.kind != BlockKind::Case {
+            diagnostics.extend(mid_diags[k - p].iter().cloned());
+            continue;
+        }
+        let memo = &blocks[k];
+        match b.kind {
+            BlockKind::Eye => {
+                diagnostics.extend(memo.diags.iter().cloned());
+                if k >= new_mid.end && delta != 0 {
+                    if let Some(Block::Eye(e)) = memo.model.map(|m| &mut case.blocks[m]) {
+                        move_eye(e, delta);
+                    }
+                }
+            }
+            _ => {
+                let slot = memo.model;
+                let models = &case.blocks;
+                let kinds_before = |kind: BlockKind| {
+                    let end = slot.unwrap_or(0);
+                    models[..end].iter().filter(|m| m.kind() == kind).count()
+                };
+                let model =
+                    lower::read_block(parsed, b, &mut case.info, &kinds_before, &mut diagnostics);
+                if let (Some(m), Some(slot)) = (model, slot) {
+                    case.blocks[slot] = m;
+                }
+            }
+        }
+    }
+
+    // Block ids of eyes must be unique: two eye blocks with the same id share
+    // their `expect` look-ups, so then everything is evaluated in full.
+    for b in removed.iter().filter(|b| matches!(b, Block::Eye(_))) {
+        let id = b.id();
         if let Some(n) = ids.get_mut(&id) {
             *n -= 1;
             if *n == 0 {
@@ -395,8 +483,11 @@ fn evaluate_with(
         }
     }
     let mut duplicate = false;
-    for e in &case.eyes[eyes_before..after] {
-        let n = ids.entry(compute::eye_block_id(e)).or_insert(0);
+    for b in case.blocks[lineup.before..lineup.after]
+        .iter()
+        .filter(|b| matches!(b, Block::Eye(_)))
+    {
+        let n = ids.entry(b.id()).or_insert(0);
         *n += 1;
         duplicate |= *n > 1;
     }
@@ -404,205 +495,71 @@ fn evaluate_with(
         return crate::evaluate_with(parsed, options);
     }
 
-    // Which block each eye came from.
-    let block_of_eye: Vec<usize> = {
-        let mut v = vec![0; case.eyes.len()];
-        for (k, b) in blocks.iter().enumerate() {
-            if let Some(e) = b.eye {
-                v[e] = k;
-            }
+    // Which top-level block each model came from.
+    let mut span_of = vec![Span::default(); case.blocks.len()];
+    for (k, b) in blocks.iter().enumerate() {
+        if let Some(m) = b.model {
+            span_of[m] = new[k].span;
         }
-        v
-    };
-    // The old index of an unchanged eye.
-    let old_eye = |i: usize| -> Option<usize> {
-        if i < eyes_before {
-            Some(i)
-        } else if i >= after {
-            Some(i - after + eyes_after)
-        } else {
-            None
-        }
-    };
-    // When the eyes read again have the same sides, dates and presence of a
-    // refraction as the ones they replace, every eye keeps its partner and
-    // previous visit (indices included): they are taken from the memo, and an
-    // eye computed again is indexed only with those two, instead of indexing
-    // every visit of the file.
+    }
+    // When the models read again have the same kinds and, for eyes, the same
+    // sides, dates and presence of a refraction as the ones they replace,
+    // every eye keeps its partner and previous visit (indices included): they
+    // are taken from the memo, and an eye computed again is indexed only with
+    // those two, instead of indexing every visit of the file.
     let same_visits = compute_ok
-        && old_eye_memos.len() == case.eyes.len()
-        && removed.len() == after - eyes_before
+        && removed.len() == lineup.after - lineup.before
         && removed
             .iter()
-            .zip(&case.eyes[eyes_before..after])
-            .all(|(a, b)| {
-                a.side == b.side
-                    && a.date == b.date
-                    && a.refraction.is_some() == b.refraction.is_some()
-            });
-    let all_visits = (!same_visits).then(|| Visits::new(&case));
-    let mut derived = if compute_ok { old_derived } else { Vec::new() };
+            .zip(&case.blocks[lineup.before..lineup.after])
+            .all(|(a, b)| visit_shape(a) == visit_shape(b));
+    drop(removed);
     if !compute_ok {
-        old_eye_memos.clear();
+        old_values.clear();
     }
-    let done = same_visits
-        && in_place(
-            &case,
-            &parsed.blocks,
-            &block_of_eye,
-            eyes_before..after,
+    let cx = Context::new(&case);
+    let in_place = if same_visits {
+        in_place(
+            &cx,
+            &lineup,
+            &span_of,
             delta,
-            &mut derived,
-            &mut old_eye_memos,
+            old_derived,
+            old_values,
             explain,
-        );
-    let (mut derived, eyes) = if done {
-        let end = old_eye_memos.last().map_or(0, |m| m.derived.end);
-        derived.truncate(end);
-        (derived, old_eye_memos)
+        )
     } else {
-        // The old list is edited in place: `derived[..w]` is final, and from `w` on
-        // it still holds the old values from old index `r`. A reused eye's values stay
-        // where they are (only their spans move); the values computed afresh wait in
-        // `fresh_values` and replace the unused old values before the next reused eye,
-        // which moves nothing when their count is unchanged (the usual edit).
-        let (mut w, mut r) = (0, 0);
-        let mut fresh_values: Vec<Derived> = Vec::new();
-        // Eyes computed afresh whose memo ranges still count from the start of `fresh_values`.
-        let mut waiting: Vec<usize> = Vec::new();
-        let flush = |derived: &mut Vec<Derived>,
-                     eyes: &mut Vec<EyeMemo>,
-                     waiting: &mut Vec<usize>,
-                     fresh: &mut Vec<Derived>,
-                     w: &mut usize,
-                     until: usize| {
-            let n = fresh.len();
-            derived.splice(*w..until, fresh.drain(..));
-            for k in waiting.drain(..) {
-                let m = &mut eyes[k];
-                m.derived = m.derived.start + *w..m.derived.end + *w;
-            }
-            *w += n;
-        };
-        let mut eyes: Vec<EyeMemo> = Vec::with_capacity(case.eyes.len());
-        for (i, e) in case.eyes.iter().enumerate() {
-            let span = parsed.blocks[block_of_eye[i]].span;
-            let (partner, previous) = match &all_visits {
-                Some(v) => (v.partner(e), v.previous(e)),
-                None => (old_eye_memos[i].partner, old_eye_memos[i].previous),
-            };
-            // The old result of this eye, if it and the eyes it depends on are
-            // unchanged and are the same eyes as before.
-            let found = old_eye(i).and_then(|j| {
-                let m = old_eye_memos.get(j)?;
-                let same_dep = |new: Option<usize>, old: Option<usize>| match (new, old) {
-                    (None, None) => true,
-                    (Some(n), Some(o)) => old_eye(n) == Some(o),
-                    _ => false,
-                };
-                (m.reusable
-                    && m.derived.start >= r
-                    && same_dep(partner, m.partner)
-                    && same_dep(previous, m.previous))
-                .then_some(j)
-            });
-            let memo = match found {
-                Some(j) => {
-                    let m = &old_eye_memos[j];
-                    let by = span.start as isize - m.span.start as isize;
-                    // Old values r..m.derived.start (of eyes not reused) give way.
-                    let until = w + (m.derived.start - r);
-                    flush(
-                        &mut derived,
-                        &mut eyes,
-                        &mut waiting,
-                        &mut fresh_values,
-                        &mut w,
-                        until,
-                    );
-                    let start = w;
-                    if by != 0 {
-                        for d in &mut derived[start..start + m.derived.len()] {
-                            d.span = d.span.moved(by);
-                        }
-                    }
-                    w += m.derived.len();
-                    r = m.derived.end;
-                    EyeMemo {
-                        span,
-                        partner,
-                        previous,
-                        derived: start..w,
-                        diags: shifted(&m.diags, by).collect(),
-                        expects: shifted(&m.expects, by).collect(),
-                        reusable: true,
-                    }
-                }
-                None => {
-                    let start = fresh_values.len();
-                    let mut diags = Vec::new();
-                    let local;
-                    let visits = match &all_visits {
-                        Some(v) => v,
-                        None => {
-                            let mut these: Vec<usize> =
-                                [Some(i), partner, previous].into_iter().flatten().collect();
-                            these.sort_unstable();
-                            these.dedup();
-                            local = Visits::of(&case, these);
-                            &local
-                        }
-                    };
-                    compute::compute_eye(&case, visits, e, explain, &mut fresh_values, &mut diags);
-                    let mut expects = Vec::new();
-                    let id = compute::eye_block_id(e);
-                    expect::check(&id, &e.expects, &fresh_values[start..], &mut expects);
-                    let reusable = fresh_values[start..].iter().all(|d| inside(d.span, span))
-                        && diags.iter().chain(&expects).all(|d| diag_inside(d, span));
-                    waiting.push(eyes.len());
-                    EyeMemo {
-                        span,
-                        partner,
-                        previous,
-                        derived: start..fresh_values.len(),
-                        diags,
-                        expects,
-                        reusable,
-                    }
-                }
-            };
-            eyes.push(memo);
-        }
-        // The remaining old values (eyes not reused, and the other blocks') go.
-        let end = derived.len();
-        flush(
-            &mut derived,
-            &mut eyes,
-            &mut waiting,
-            &mut fresh_values,
-            &mut w,
-            end,
-        );
-        (derived, eyes)
+        Err((old_derived, old_values))
     };
-    // Diagnostics in the order of a full evaluation: each eye's, the other
-    // blocks', then the eyes' `expect` lines.
-    for m in &eyes {
+    let (mut derived, mut values) = match in_place {
+        Ok(done) => done,
+        Err((old_derived, old_values)) => rebuild(
+            &cx,
+            &lineup,
+            &span_of,
+            same_visits,
+            compute_ok,
+            old_derived,
+            old_values,
+            explain,
+        ),
+    };
+    derived.shrink_to_fit();
+    share_expects(&case, &derived, &mut values);
+    // Diagnostics in the order of a full evaluation: reading, computing, then
+    // `expect` lines, each block in file order.
+    for m in &values {
         diagnostics.extend(m.diags.iter().cloned());
     }
-    let others = derived.len();
-    compute::compute_others(&case, explain, &mut derived, &mut diagnostics);
-    for m in &eyes {
+    for m in &values {
         diagnostics.extend(m.expects.iter().cloned());
     }
-    crate::check_others(&case, &derived[others..], &mut diagnostics);
     diagnostics.sort_by_key(|d| (d.span.start, d.severity));
-    // Values outside their eye block, for `values_starting_in`.
-    let mut loose: Vec<usize> = eyes
+    // Values outside their block, for `values_starting_in`.
+    let mut loose: Vec<usize> = values
         .iter()
         .filter(|m| !m.reusable)
         .flat_map(|m| m.derived.clone())
-        .chain(others..derived.len())
         .collect();
     loose.sort_by_key(|&i| (derived[i].span.start, i));
     Evaluation {
@@ -615,72 +572,89 @@ fn evaluate_with(
             len: parsed.source.len(),
             context,
             blocks,
-            eyes,
+            values,
             ids,
             loose,
         },
     }
 }
 
-/// The usual edit, done in place: the eyes read again have the same sides,
-/// dates and presence of a refraction as before (so every eye keeps its
-/// partner and previous visit) and `memos` holds every eye's old result. Only
-/// the eyes read again, the eyes that depend on them and those whose results
-/// point outside their block are computed again, each indexed only with its
-/// partner and previous visit; their values are written over the old ones, and
-/// the results of the eyes after the edit are moved by `delta` bytes. Returns
-/// false, having changed nothing, when a recomputed eye has a different number
-/// of values than before (then the general path runs). `explain` writes the
-/// substituted formulas ([`EvalOptions::derivations`]).
-// Eight inputs, all of the one call site's state: a struct would only rename them.
-#[allow(clippy::too_many_arguments)]
-fn in_place(
-    case: &Case,
-    blocks: &[parax_syntax::Block],
-    block_of_eye: &[usize],
-    changed: Range<usize>,
-    delta: isize,
-    derived: &mut [Derived],
-    memos: &mut [EyeMemo],
+/// Compute block `i` onto the end of `out`: the diagnostics of computing it and
+/// of its `expect` lines, and whether every span stays inside `span`.
+fn compute_into(
+    cx: &Context<'_>,
+    visits: &Visits<'_>,
+    i: usize,
     explain: bool,
-) -> bool {
-    if memos.len() != case.eyes.len() {
-        return false;
+    span: Span,
+    out: &mut Vec<Derived>,
+) -> (Vec<Diagnostic>, Vec<Diagnostic>, bool) {
+    let start = out.len();
+    let mut diags = Vec::new();
+    let id = blocks::compute(cx, visits, i, explain, out, &mut diags);
+    let mut expects = Vec::new();
+    expect::check(
+        &id,
+        cx.case.blocks[i].expects(),
+        &out[start..],
+        &mut expects,
+    );
+    let reusable = out[start..].iter().all(|d| inside(d.span, span))
+        && diags.iter().chain(&expects).all(|d| diag_inside(d, span));
+    (diags, expects, reusable)
+}
+
+/// Old values and their memos, handed back when [`in_place`] cannot be used.
+type Old = (Vec<Derived>, Vec<ValuesMemo>);
+
+/// The usual edit, done in place: the models read again have the same kinds
+/// (and eyes the same sides, dates and presence of a refraction) as before, so
+/// every eye keeps its partner and previous visit and `memos` holds every
+/// model's old result under its index. Only the blocks read again, the blocks
+/// that are not eyes, the eyes that depend on changed ones and those whose
+/// results point outside their block are computed again, each eye indexed only
+/// with its partner and previous visit; their values are written over the old
+/// ones, and the results of the blocks after the edit are moved by `delta`
+/// bytes. Gives back the old values unchanged when a recomputed block has a
+/// different number of values than before (then [`rebuild`] runs).
+fn in_place(
+    cx: &Context<'_>,
+    lineup: &Lineup,
+    span_of: &[Span],
+    delta: isize,
+    mut derived: Vec<Derived>,
+    mut memos: Vec<ValuesMemo>,
+    explain: bool,
+) -> Result<Old, Old> {
+    let case = cx.case;
+    if memos.len() != case.blocks.len() {
+        return Err((derived, memos));
     }
-    let touched = |x: Option<usize>| x.is_some_and(|x| changed.contains(&x));
+    let touched = |x: Option<usize>| x.is_some_and(|x| lineup.changed(x));
     let redo: Vec<usize> = (0..memos.len())
         .filter(|&i| {
             let m = &memos[i];
-            changed.contains(&i) || !m.reusable || touched(m.partner) || touched(m.previous)
+            lineup.changed(i)
+                || !matches!(case.blocks[i], Block::Eye(_))
+                || !m.reusable
+                || touched(m.partner)
+                || touched(m.previous)
         })
         .collect();
     let mut results = Vec::with_capacity(redo.len());
     for &i in &redo {
-        let e = &case.eyes[i];
         let m = &memos[i];
-        let span = blocks[block_of_eye[i]].span;
-        let mut these: Vec<usize> = [Some(i), m.partner, m.previous]
-            .into_iter()
-            .flatten()
-            .collect();
-        these.sort_unstable();
-        these.dedup();
-        let visits = Visits::of(case, these);
+        let visits = local_visits(case, i, m.partner, m.previous);
         let mut values = Vec::with_capacity(m.derived.len());
-        let mut diags = Vec::new();
-        compute::compute_eye(case, &visits, e, explain, &mut values, &mut diags);
+        let result = compute_into(cx, &visits, i, explain, span_of[i], &mut values);
         if values.len() != m.derived.len() {
-            return false;
+            return Err((derived, memos));
         }
-        let mut expects = Vec::new();
-        expect::check(&compute::eye_block_id(e), &e.expects, &values, &mut expects);
-        let reusable = values.iter().all(|d| inside(d.span, span))
-            && diags.iter().chain(&expects).all(|d| diag_inside(d, span));
-        results.push((values, diags, expects, reusable, span));
+        results.push((values, result));
     }
-    // Every eye after the edit moves (the recomputed ones are replaced below).
+    // Every block after the edit moves (the recomputed ones are replaced below).
     if delta != 0 {
-        for m in memos[changed.end..].iter_mut() {
+        for m in memos[lineup.after..].iter_mut() {
             m.span = m.span.moved(delta);
             for d in &mut derived[m.derived.clone()] {
                 d.span = d.span.moved(delta);
@@ -690,7 +664,7 @@ fn in_place(
             }
         }
     }
-    for (&i, (values, diags, expects, reusable, span)) in redo.iter().zip(results) {
+    for (&i, (values, (diags, expects, reusable))) in redo.iter().zip(results) {
         let m = &mut memos[i];
         for (slot, v) in derived[m.derived.clone()].iter_mut().zip(values) {
             *slot = v;
@@ -698,9 +672,126 @@ fn in_place(
         m.diags = diags;
         m.expects = expects;
         m.reusable = reusable;
-        m.span = span;
+        m.span = span_of[i];
     }
-    true
+    Ok((derived, memos))
+}
+
+/// Every block's values in file order: an unchanged eye's old values are moved
+/// over (their spans moved to where the block stands now) when the eyes it
+/// depends on are the same as before; every other block is computed.
+// The one call site's state, all of it needed.
+#[allow(clippy::too_many_arguments)]
+fn rebuild(
+    cx: &Context<'_>,
+    lineup: &Lineup,
+    span_of: &[Span],
+    same_visits: bool,
+    compute_ok: bool,
+    old_derived: Vec<Derived>,
+    old_memos: Vec<ValuesMemo>,
+    explain: bool,
+) -> Old {
+    let case = cx.case;
+    let all_visits = (!same_visits).then(|| Visits::new(case));
+    let mut derived = Vec::with_capacity(old_derived.len());
+    let mut old = old_derived.into_iter();
+    let mut pos = 0;
+    let mut memos = Vec::with_capacity(case.blocks.len());
+    for (i, b) in case.blocks.iter().enumerate() {
+        let span = span_of[i];
+        let (partner, previous) = match (b, &all_visits) {
+            (Block::Eye(e), Some(v)) => (v.partner(e), v.previous(e)),
+            (Block::Eye(_), None) => (old_memos[i].partner, old_memos[i].previous),
+            _ => (None, None),
+        };
+        // The old result of this eye, if it and the eyes it depends on are
+        // unchanged and are the same eyes as before.
+        let found = lineup.old(i).filter(|_| compute_ok).and_then(|j| {
+            let m = old_memos.get(j)?;
+            let same_dep = |new: Option<usize>, old: Option<usize>| match (new, old) {
+                (None, None) => true,
+                (Some(n), Some(o)) => lineup.old(n) == Some(o),
+                _ => false,
+            };
+            (matches!(b, Block::Eye(_))
+                && m.reusable
+                && m.derived.start >= pos
+                && same_dep(partner, m.partner)
+                && same_dep(previous, m.previous))
+            .then_some(m)
+        });
+        let start = derived.len();
+        let memo = match found {
+            Some(m) => {
+                let by = span.start as isize - m.span.start as isize;
+                // Old values pos..m.derived.start (of blocks not reused) go.
+                if m.derived.start > pos {
+                    old.nth(m.derived.start - pos - 1);
+                }
+                derived.extend(old.by_ref().take(m.derived.len()).map(|mut d| {
+                    d.span = d.span.moved(by);
+                    d
+                }));
+                pos = m.derived.end;
+                ValuesMemo {
+                    span,
+                    partner,
+                    previous,
+                    derived: start..derived.len(),
+                    diags: shifted(&m.diags, by).collect(),
+                    expects: shifted(&m.expects, by).collect(),
+                    reusable: true,
+                }
+            }
+            None => {
+                let local;
+                let visits = match &all_visits {
+                    Some(v) => v,
+                    None => {
+                        local = local_visits(case, i, partner, previous);
+                        &local
+                    }
+                };
+                let (diags, expects, reusable) =
+                    compute_into(cx, visits, i, explain, span, &mut derived);
+                ValuesMemo {
+                    span,
+                    partner,
+                    previous,
+                    derived: start..derived.len(),
+                    diags,
+                    expects,
+                    reusable,
+                }
+            }
+        };
+        memos.push(memo);
+    }
+    (derived, memos)
+}
+
+/// Blocks other than eyes that share an id (two unnamed frames) look their
+/// `expect` lines up across each other's values, as a full evaluation does:
+/// check those again against all the values of the id.
+fn share_expects(case: &Case, derived: &[Derived], memos: &mut [ValuesMemo]) {
+    let mut groups: HashMap<String, Vec<usize>> = HashMap::new();
+    for (i, b) in case.blocks.iter().enumerate() {
+        if !matches!(b, Block::Eye(_)) {
+            groups.entry(b.id()).or_default().push(i);
+        }
+    }
+    for (id, list) in groups.into_iter().filter(|(_, l)| l.len() > 1) {
+        let all: Vec<Derived> = list
+            .iter()
+            .flat_map(|&i| derived[memos[i].derived.clone()].iter().cloned())
+            .collect();
+        for i in list {
+            let mut expects = Vec::new();
+            expect::check(&id, case.blocks[i].expects(), &all, &mut expects);
+            memos[i].expects = expects;
+        }
+    }
 }
 
 /// See [`Evaluation::values_starting_in`].
@@ -711,12 +802,12 @@ pub(crate) fn values_starting_in(e: &Evaluation, span: Span) -> Vec<usize> {
     };
     let mut out: Vec<usize> = if e.memo.kept {
         let m = &e.memo;
-        // Eye blocks are in file order and do not overlap.
-        let first = m.eyes.partition_point(|x| x.span.end < span.start);
+        // Blocks are in file order and do not overlap.
+        let first = m.values.partition_point(|x| x.span.end < span.start);
         let from = m
             .loose
             .partition_point(|&i| e.derived[i].span.start < span.start);
-        m.eyes[first..]
+        m.values[first..]
             .iter()
             .take_while(|x| x.span.start <= span.end)
             .filter(|x| x.reusable)
@@ -731,10 +822,10 @@ pub(crate) fn values_starting_in(e: &Evaluation, span: Span) -> Vec<usize> {
     out
 }
 
-/// See [`Evaluation::explained`]. After an incremental evaluation, an eye's
-/// values are computed again from its lowered eye, its partner and its previous
-/// visit (the inputs the memo records, as [`in_place`] does), and the other
-/// blocks' values from the case; each block at most once per call.
+/// See [`Evaluation::explained`]. After an incremental evaluation, each block
+/// holding one of the values is computed again, an eye from its model, its
+/// partner and its previous visit (the inputs the memo records); each block at
+/// most once per call.
 pub(crate) fn explained(e: &Evaluation, indices: &[usize]) -> Vec<Derived> {
     if !e.memo.values_only {
         return indices.iter().map(|&i| e.derived[i].clone()).collect();
@@ -746,34 +837,20 @@ pub(crate) fn explained(e: &Evaluation, indices: &[usize]) -> Vec<Derived> {
         return indices.iter().map(|&i| all[i].clone()).collect();
     }
     let m = &e.memo;
-    let others = m.eyes.last().map_or(0, |x| x.derived.end);
-    // Computed blocks: `Some(eye)` or `None` for the other blocks.
-    let mut done: HashMap<Option<usize>, Vec<Derived>> = HashMap::new();
+    let cx = Context::new(&e.case);
+    let mut done: HashMap<usize, Vec<Derived>> = HashMap::new();
     let mut out = Vec::with_capacity(indices.len());
     for &i in indices {
-        let unit = (i < others).then(|| m.eyes.partition_point(|x| x.derived.end <= i));
-        let values = done.entry(unit).or_insert_with(|| {
+        let k = m.values.partition_point(|x| x.derived.end <= i);
+        let vm = &m.values[k];
+        let values = done.entry(k).or_insert_with(|| {
+            let visits = local_visits(&e.case, k, vm.partner, vm.previous);
             let mut values = Vec::new();
             let mut diags = Vec::new();
-            match unit {
-                Some(k) => {
-                    let em = &m.eyes[k];
-                    let mut these: Vec<usize> = [Some(k), em.partner, em.previous]
-                        .into_iter()
-                        .flatten()
-                        .collect();
-                    these.sort_unstable();
-                    these.dedup();
-                    let visits = Visits::of(&e.case, these);
-                    let eye = &e.case.eyes[k];
-                    compute::compute_eye(&e.case, &visits, eye, true, &mut values, &mut diags);
-                }
-                None => compute::compute_others(&e.case, true, &mut values, &mut diags),
-            }
+            blocks::compute(&cx, &visits, k, true, &mut values, &mut diags);
             values
         });
-        let base = unit.map_or(others, |k| m.eyes[k].derived.start);
-        out.push(values[i - base].clone());
+        out.push(values[i - vm.derived.start].clone());
     }
     out
 }

@@ -4,6 +4,7 @@
 //! [`diagnostic::Diagnostic`]. The command line and the language server render
 //! these and compute nothing of their own.
 
+pub mod blocks;
 pub mod codes;
 mod compute;
 pub mod derived;
@@ -33,7 +34,7 @@ use parax_syntax::Parsed;
 pub struct Evaluation {
     /// The facts read from the file.
     pub case: Case,
-    /// Every derived value: eyes first, then systems, each block in file order.
+    /// Every derived value, block by block in file order.
     pub derived: Vec<Derived>,
     /// Every diagnostic (syntax, notation, units, clinical, expect), by position.
     pub diagnostics: Vec<Diagnostic>,
@@ -142,11 +143,10 @@ pub fn evaluate_case_with(case: &Case, options: EvalOptions) -> (Vec<Derived>, V
     // scan of every value of the file (quadratic on large files).
     let ranges = block_ranges(&derived);
     let of = |id: &str| -> &[Derived] { ranges.get(id).map_or(&[][..], |&(a, b)| &derived[a..b]) };
-    for e in &case.eyes {
-        let id = compute::eye_block_id(e);
-        expect::check(&id, &e.expects, of(&id), &mut diags);
+    for b in &case.blocks {
+        let id = b.id();
+        expect::check(&id, b.expects(), of(&id), &mut diags);
     }
-    check_others(case, &derived, &mut diags);
     (derived, diags)
 }
 
@@ -314,7 +314,7 @@ pub fn evaluate_case_each(
     options: EvalOptions,
     each: &mut dyn FnMut(&[Derived]),
 ) -> Vec<Diagnostic> {
-    let ids = compute::block_ids(case);
+    let ids: Vec<String> = case.blocks.iter().map(model::Block::id).collect();
     let mut seen = std::collections::HashSet::with_capacity(ids.len());
     if !ids.iter().all(|id| seen.insert(id.as_str())) {
         let (derived, diags) = evaluate_case_with(case, options);
@@ -332,8 +332,8 @@ pub fn evaluate_case_each(
         options.derivations,
         &mut buf,
         &mut diags,
-        &mut |id, expects, buf, start| {
-            expect::check(id, expects, &buf[start..], &mut expect_diags);
+        &mut |block, id, buf, start| {
+            expect::check(id, block.expects(), &buf[start..], &mut expect_diags);
             each(&buf[start..]);
             buf.truncate(start);
         },
@@ -343,7 +343,8 @@ pub fn evaluate_case_each(
 }
 
 /// The range of each block id's values in `derived` (each block's values are
-/// pushed together).
+/// pushed together; two blocks sharing an id get the range covering both, and
+/// [`expect::check`] looks values up by key within it).
 fn block_ranges(derived: &[Derived]) -> std::collections::HashMap<&str, (usize, usize)> {
     let mut ranges: std::collections::HashMap<&str, (usize, usize)> =
         std::collections::HashMap::new();
@@ -352,33 +353,6 @@ fn block_ranges(derived: &[Derived]) -> std::collections::HashMap<&str, (usize, 
         r.1 = i + 1;
     }
     ranges
-}
-
-/// Check the `expect` lines of every block other than the eye blocks against
-/// `derived` (which must hold those blocks' values).
-fn check_others(case: &Case, derived: &[Derived], diags: &mut Vec<Diagnostic>) {
-    let ranges = block_ranges(derived);
-    let of = |id: &str| -> &[Derived] { ranges.get(id).map_or(&[][..], |&(a, b)| &derived[a..b]) };
-    for s in &case.systems {
-        let id = compute::system_block_id(s);
-        expect::check(&id, &s.expects, of(&id), diags);
-    }
-    for f in &case.frames {
-        let id = compute::frame_id(f);
-        expect::check(&id, &f.expects, of(&id), diags);
-    }
-    for l in &case.spectacle_lenses {
-        let id = compute::spectacle_block_id(l);
-        expect::check(&id, &l.expects, of(&id), diags);
-    }
-    for c in &case.contact_lenses {
-        let id = compute::contact_block_id(c);
-        expect::check(&id, &c.expects, of(&id), diags);
-    }
-    for m in &case.model_eyes {
-        let id = compute::model_eye_block_id(m);
-        expect::check(&id, &m.expects, of(&id), diags);
-    }
 }
 
 /// Push `item`, growing a full `list` by a quarter instead of doubling it. For

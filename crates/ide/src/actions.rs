@@ -4,6 +4,8 @@
 //! `expect` line with the computed value.
 
 use crate::{meets, Analysis};
+use parax_eval::blocks::eye::keys as eye;
+use parax_eval::blocks::system::keys as system;
 use parax_eval::{units::unit_of, Edit};
 use parax_optics::units::{Dimension, Unit};
 use parax_syntax::{Line, Span, Symbol as Sym, ValueKind};
@@ -36,15 +38,15 @@ pub struct Action {
 
 /// Names offered for `expect` lines, in this order (the values an inlay hint shows).
 const RECORDABLE: &[&str] = &[
-    "corneal-plane",
-    "spherical-equivalent",
-    "near-refraction",
-    "mean-k",
-    "corneal-cylinder",
-    "total-corneal-power",
-    "image",
-    "magnification",
-    "equivalent-power",
+    eye::CORNEAL_PLANE,
+    eye::SPHERICAL_EQUIVALENT,
+    eye::NEAR_REFRACTION,
+    eye::MEAN_K,
+    eye::CORNEAL_CYLINDER,
+    eye::TOTAL_CORNEAL_POWER,
+    system::IMAGE,
+    system::MAGNIFICATION,
+    system::EQUIVALENT_POWER,
 ];
 
 /// Actions for the selection `range`.
@@ -114,9 +116,9 @@ fn transpose(a: &Analysis, line: &Line, out: &mut Vec<Action>) {
         return;
     };
     let (want, form) = if c < 0.0 {
-        ("plus-cyl", "plus")
+        (eye::PLUS_CYL, "plus")
     } else {
-        ("minus-cyl", "minus")
+        (eye::MINUS_CYL, "minus")
     };
     let Some(d) = a.derived_on_line(line).find(|d| d.name == want) else {
         return;

@@ -1,6 +1,8 @@
 //! Inlay hints: the derived values of a line, compact, shown at its end.
 
 use crate::{meets, Analysis};
+use parax_eval::blocks::eye::keys as eye;
+use parax_eval::blocks::system::keys as system;
 use parax_syntax::Span;
 use serde::Serialize;
 use std::fmt::Write as _;
@@ -19,16 +21,18 @@ pub struct InlayHint {
 
 /// The values a hint shows for a line, in order of preference; the first two
 /// present are shown. Names not listed never appear in a hint (hover has them all).
+/// (The same names are used by other blocks' values: a contact lens's
+/// `corneal-plane`, a spectacle lens's `magnification`.)
 const PREFERRED: &[(&str, &str)] = &[
-    ("corneal-plane", "cornea"),
-    ("spherical-equivalent", "SE"),
-    ("near-refraction", "near"),
-    ("mean-k", "K"),
-    ("corneal-cylinder", "cyl"),
-    ("total-corneal-power", "total K"),
-    ("image", "image"),
-    ("magnification", "mag"),
-    ("equivalent-power", "F"),
+    (eye::CORNEAL_PLANE, "cornea"),
+    (eye::SPHERICAL_EQUIVALENT, "SE"),
+    (eye::NEAR_REFRACTION, "near"),
+    (eye::MEAN_K, "K"),
+    (eye::CORNEAL_CYLINDER, "cyl"),
+    (eye::TOTAL_CORNEAL_POWER, "total K"),
+    (system::IMAGE, "image"),
+    (system::MAGNIFICATION, "mag"),
+    (system::EQUIVALENT_POWER, "F"),
 ];
 
 /// Hints for every statement line that meets `range` (the whole file when `None`).

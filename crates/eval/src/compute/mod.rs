@@ -1,27 +1,21 @@
-//! From the case model to derived values and the diagnostics they raise. Works on
-//! the model alone (no text), so a case read from JSON evaluates identically.
+//! From the case model to derived values and the diagnostics they raise: the
+//! loop over the blocks, and what every block's compute step shares ([`Out`],
+//! number formatting). Works on the model alone (no text), so a case read from
+//! JSON evaluates identically. Each block kind's computations live in its
+//! module under `blocks`.
 
-mod contact;
-mod eye;
-mod eye_axial;
-mod iol;
-mod model_eye;
-mod near;
-mod spectacle;
-mod system;
-mod visits;
+pub(crate) use crate::blocks::eye::Visits;
 
-pub use visits::Visits;
-
+use crate::blocks::{self, Context};
 use crate::derived::{Derivation, Derived, DerivedValue, Method, Phrase};
 use crate::diagnostic::Diagnostic;
-use crate::model::{Case, Expect, Eye, Frame, Side};
+use crate::model::{Block, Case};
 use parax_optics::refraction::SphCyl;
 use parax_syntax::Span;
 use std::sync::Arc;
 
-/// Every derived value and diagnostic of a case; the substituted formulas only
-/// when `derivations` is true.
+/// Every derived value and diagnostic of a case, block by block in file order;
+/// the substituted formulas only when `derivations` is true.
 pub fn compute(
     case: &Case,
     derivations: bool,
@@ -31,56 +25,13 @@ pub fn compute(
     compute_each(case, derivations, derived, diags, &mut |_, _, _, _| {});
 }
 
-/// The values of one eye block. Besides the block itself they depend on the
-/// `case` block and the frames (`case`), and on the eye's partner and previous
-/// visit (`visits`); nothing else. Substituted formulas only when `derivations`.
-pub fn compute_eye(
-    case: &Case,
-    visits: &Visits<'_>,
-    e: &Eye,
-    derivations: bool,
-    derived: &mut Vec<Derived>,
-    diags: &mut Vec<Diagnostic>,
-) {
-    let mut out = Out::new(Arc::new(eye::block_id(e)), derivations, derived);
-    eye_block(case, visits, e, &mut out, diags);
-}
-
-/// Every computation of one eye block, in order. The one list of them: full,
-/// block-by-block and incremental evaluation all come here.
-fn eye_block(
-    case: &Case,
-    visits: &Visits<'_>,
-    e: &Eye,
-    out: &mut Out<'_>,
-    diags: &mut Vec<Diagnostic>,
-) {
-    eye::compute(case, e, out, diags);
-    eye_axial::compute(case, e, out);
-    near::compute(case, e, out);
-    iol::compute(e, out, diags);
-    visits::compute(case, visits, e, out, diags);
-}
-
-/// The values of every block other than the eye blocks, in the order of
-/// [`compute`]; substituted formulas only when `derivations`.
-pub fn compute_others(
-    case: &Case,
-    derivations: bool,
-    derived: &mut Vec<Derived>,
-    diags: &mut Vec<Diagnostic>,
-) {
-    others_each(case, derivations, derived, diags, &mut |_, _, _, _| {});
-}
-
-/// What [`compute_each`] calls after each block: the block id, the block's
-/// `expect` lines, the buffer and the index where the block's values start in it.
-pub(crate) type BlockDone<'a> = dyn FnMut(&str, &[Expect], &mut Vec<Derived>, usize) + 'a;
+/// What [`compute_each`] calls after each block: the block, its id, the buffer
+/// and the index where the block's values start in it.
+pub(crate) type BlockDone<'a> = dyn FnMut(&Block, &str, &mut Vec<Derived>, usize) + 'a;
 
 /// [`compute`] one block at a time: the values of each block are pushed onto
-/// `buf`, then `done` is called with the block's id, its `expect` lines and the
-/// index where its values start (it may drain them). Blocks come in the order of
-/// [`compute`]: eyes, systems, spectacle lenses, frames, contact lenses, model eyes.
+/// `buf`, then `done` is called with the block, its id and the index where its
+/// values start (it may drain them). Blocks come in file order.
 pub(crate) fn compute_each(
     case: &Case,
     derivations: bool,
@@ -88,108 +39,13 @@ pub(crate) fn compute_each(
     diags: &mut Vec<Diagnostic>,
     done: &mut BlockDone<'_>,
 ) {
+    let cx = Context::new(case);
     let visits = Visits::new(case);
-    for e in &case.eyes {
-        let id = Arc::new(eye::block_id(e));
+    for (i, b) in case.blocks.iter().enumerate() {
         let start = buf.len();
-        let mut out = Out::new(Arc::clone(&id), derivations, buf);
-        eye_block(case, &visits, e, &mut out, diags);
-        done(&id, &e.expects, buf, start);
+        let id = blocks::compute(&cx, &visits, i, derivations, buf, diags);
+        done(b, &id, buf, start);
     }
-    others_each(case, derivations, buf, diags, done);
-}
-
-/// The blocks other than eye blocks, one at a time, as [`compute_each`] does.
-fn others_each(
-    case: &Case,
-    derivations: bool,
-    buf: &mut Vec<Derived>,
-    diags: &mut Vec<Diagnostic>,
-    done: &mut BlockDone<'_>,
-) {
-    for s in &case.systems {
-        let id = Arc::new(system::block_id(s));
-        let start = buf.len();
-        system::compute(s, &mut Out::new(Arc::clone(&id), derivations, buf), diags);
-        done(&id, &s.expects, buf, start);
-    }
-    for l in &case.spectacle_lenses {
-        let id = Arc::new(spectacle::block_id(l));
-        let start = buf.len();
-        spectacle::compute(
-            case,
-            l,
-            &mut Out::new(Arc::clone(&id), derivations, buf),
-            diags,
-        );
-        done(&id, &l.expects, buf, start);
-    }
-    for f in &case.frames {
-        let id = Arc::new(spectacle::frame_id(f));
-        let start = buf.len();
-        spectacle::compute_frame(
-            case,
-            f,
-            &mut Out::new(Arc::clone(&id), derivations, buf),
-            diags,
-        );
-        done(&id, &f.expects, buf, start);
-    }
-    for c in &case.contact_lenses {
-        let id = Arc::new(contact::block_id(c));
-        let start = buf.len();
-        contact::compute(
-            case,
-            c,
-            &mut Out::new(Arc::clone(&id), derivations, buf),
-            diags,
-        );
-        done(&id, &c.expects, buf, start);
-    }
-    for m in &case.model_eyes {
-        let id = Arc::new(model_eye::block_id(m));
-        let start = buf.len();
-        model_eye::compute(
-            case,
-            m,
-            &mut Out::new(Arc::clone(&id), derivations, buf),
-            diags,
-        );
-        done(&id, &m.expects, buf, start);
-    }
-}
-
-/// The id of every block that has values, in the order of [`compute`].
-pub(crate) fn block_ids(case: &Case) -> Vec<String> {
-    let mut ids = Vec::with_capacity(
-        case.eyes.len()
-            + case.systems.len()
-            + case.spectacle_lenses.len()
-            + case.frames.len()
-            + case.contact_lenses.len()
-            + case.model_eyes.len(),
-    );
-    ids.extend(case.eyes.iter().map(eye::block_id));
-    ids.extend(case.systems.iter().map(system::block_id));
-    ids.extend(case.spectacle_lenses.iter().map(spectacle::block_id));
-    ids.extend(case.frames.iter().map(spectacle::frame_id));
-    ids.extend(case.contact_lenses.iter().map(contact::block_id));
-    ids.extend(case.model_eyes.iter().map(model_eye::block_id));
-    ids
-}
-
-/// The eye block a lens of `side` is fitted to: the undated block if there is one,
-/// else the latest dated visit.
-pub(crate) fn current_eye(case: &Case, side: Side) -> Option<&Eye> {
-    let mine = case.eyes.iter().filter(|e| e.side == side);
-    mine.clone()
-        .find(|e| e.date.is_none())
-        .or_else(|| mine.max_by(|a, b| a.date.cmp(&b.date)))
-}
-
-/// The frame the lenses are fitted in: the first `frame` block.
-pub(crate) fn first_frame(case: &Case) -> Option<&Frame> {
-    case.frames.first()
 }
 
 /// A spherocylinder as a derived value.
@@ -217,7 +73,11 @@ pub(crate) struct Out<'a> {
 }
 
 impl<'a> Out<'a> {
-    fn new(block: Arc<String>, derivations: bool, derived: &'a mut Vec<Derived>) -> Self {
+    pub(crate) fn new(
+        block: Arc<String>,
+        derivations: bool,
+        derived: &'a mut Vec<Derived>,
+    ) -> Self {
         Out {
             block,
             derivations,
@@ -285,9 +145,3 @@ pub(crate) fn n4(x: f64) -> String {
     let x = if x.abs() < 5e-5 { 0.0 } else { x };
     format!("{x:.4}")
 }
-
-pub use contact::block_id as contact_block_id;
-pub use eye::block_id as eye_block_id;
-pub use model_eye::block_id as model_eye_block_id;
-pub use spectacle::{block_id as spectacle_block_id, frame_id};
-pub use system::block_id as system_block_id;

@@ -2,11 +2,13 @@
 //! against the other eye of the same visit, and the change of the refraction since
 //! the previous dated visit of the same eye, as power vectors and per year.
 
-use super::{n4, Out};
+use super::keys;
+use crate::blocks::Context;
 use crate::codes;
+use crate::compute::{n4, Out};
 use crate::derived::{DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
-use crate::model::{Case, Eye, Side};
+use crate::model::{Block, Case, Eye, Side};
 use crate::sources as src;
 use parax_optics::refraction::SphCyl;
 use std::collections::HashMap;
@@ -45,17 +47,20 @@ pub struct Visits<'a> {
 impl<'a> Visits<'a> {
     /// Index the eye blocks of `case`.
     pub fn new(case: &'a Case) -> Self {
-        Self::of(case, 0..case.eyes.len())
+        Self::of(case, 0..case.blocks.len())
     }
 
-    /// Index only the eye blocks `eyes` (indices in `case.eyes`, ascending). An
+    /// Index only the eye blocks `eyes` (indices in `case.blocks`, ascending). An
     /// eye indexed together with its partner and previous visit finds the same
     /// ones as through [`Visits::new`] (the incremental evaluation uses this to
     /// compute one eye again without indexing every visit).
     pub fn of(case: &'a Case, eyes: impl IntoIterator<Item = usize>) -> Self {
         let mut first = HashMap::new();
         let mut dated: HashMap<Side, Vec<(i64, usize)>> = HashMap::new();
-        for (i, o) in eyes.into_iter().map(|i| (i, &case.eyes[i])) {
+        for i in eyes {
+            let Block::Eye(o) = &case.blocks[i] else {
+                continue;
+            };
             if o.refraction.is_none() {
                 continue;
             }
@@ -70,7 +75,7 @@ impl<'a> Visits<'a> {
         Visits { first, dated }
     }
 
-    /// Index in `case.eyes` of the other eye of the same visit, if any.
+    /// Index in `case.blocks` of the other eye of the same visit, if any.
     pub fn partner(&self, e: &Eye) -> Option<usize> {
         e.refraction.as_ref()?;
         let other_side = match e.side {
@@ -80,7 +85,7 @@ impl<'a> Visits<'a> {
         self.first.get(&(other_side, e.date.as_deref())).copied()
     }
 
-    /// Index in `case.eyes` of the previous dated visit of the same eye, if any.
+    /// Index in `case.blocks` of the previous dated visit of the same eye, if any.
     pub fn previous(&self, e: &Eye) -> Option<usize> {
         e.refraction.as_ref()?;
         let now = e.date.as_deref().and_then(days)?;
@@ -90,8 +95,8 @@ impl<'a> Visits<'a> {
     }
 }
 
-pub(super) fn compute(
-    case: &Case,
+pub(crate) fn compute(
+    case: &Context<'_>,
     visits: &Visits<'_>,
     e: &Eye,
     out: &mut Out<'_>,
@@ -100,7 +105,7 @@ pub(super) fn compute(
     let Some(this) = rx(e) else { return };
     let span = e.refraction.as_ref().map_or(e.span, |r| r.span);
     // Anisometropia: the other eye of the same visit (same date, or both undated).
-    if let Some(other) = visits.partner(e).map(|i| &case.eyes[i]) {
+    if let Some(other) = visits.partner(e).map(|i| case.eye(i)) {
         let o = rx(other).expect("checked");
         let (r, l) = if e.side == Side::Right {
             (this, o)
@@ -109,7 +114,7 @@ pub(super) fn compute(
         };
         let se = (r.spherical_equivalent() - l.spherical_equivalent()).abs();
         out.push(
-            "anisometropia",
+            keys::ANISOMETROPIA,
             "anisometropia in spherical equivalent",
             V::Power { dioptres: se },
             span,
@@ -128,8 +133,12 @@ pub(super) fn compute(
         );
         let mut worst: f64 = se;
         for (mer, name, label) in [
-            (180.0, "anisometropia-180", "anisometropia in meridian 180"),
-            (90.0, "anisometropia-90", "anisometropia in meridian 90"),
+            (
+                180.0,
+                keys::ANISOMETROPIA_180,
+                "anisometropia in meridian 180",
+            ),
+            (90.0, keys::ANISOMETROPIA_90, "anisometropia in meridian 90"),
         ] {
             let d = (r.meridian_power(mer) - l.meridian_power(mer)).abs();
             worst = worst.max(d);
@@ -171,7 +180,7 @@ pub(super) fn compute(
     };
     // The latest earlier visit; among visits of the same day, the last in the file.
     let prev = visits.previous(e).map(|i| {
-        let o = &case.eyes[i];
+        let o = case.eye(i);
         (o.date.as_deref().and_then(days).expect("dated"), o)
     });
     let Some((then, before)) = prev else { return };
@@ -180,14 +189,18 @@ pub(super) fn compute(
     let years = (now - then) as f64 / 365.25;
     let since = before.date.clone().unwrap_or_default();
     for (name, label, v) in [
-        ("change-m", "change of M since the previous visit", change.m),
         (
-            "change-j0",
+            keys::CHANGE_M,
+            "change of M since the previous visit",
+            change.m,
+        ),
+        (
+            keys::CHANGE_J0,
             "change of J0 since the previous visit",
             change.j0,
         ),
         (
-            "change-j45",
+            keys::CHANGE_J45,
             "change of J45 since the previous visit",
             change.j45,
         ),
@@ -212,7 +225,7 @@ pub(super) fn compute(
         );
     }
     out.push(
-        "change-years",
+        keys::CHANGE_YEARS,
         "years since the previous visit",
         V::Number { value: years },
         span,
@@ -224,7 +237,7 @@ pub(super) fn compute(
     );
     let per_year = change.m / years;
     out.push(
-        "change-m-per-year",
+        keys::CHANGE_M_PER_YEAR,
         "change of M per year",
         V::Power { dioptres: per_year },
         span,
@@ -236,7 +249,7 @@ pub(super) fn compute(
     );
     let blur_per_year = change.blur_strength() / years;
     out.push(
-        "change-blur-per-year",
+        keys::CHANGE_BLUR_PER_YEAR,
         "blur strength of the change per year",
         V::Power {
             dioptres: blur_per_year,

@@ -3,9 +3,11 @@
 //! amplitude, the range of clear vision through the add, and an add suggestion
 //! that keeps half the mean amplitude in reserve (rule of thumb).
 
-use super::{n4, Out};
+use super::keys;
+use crate::blocks::Context;
+use crate::compute::{n4, Out};
 use crate::derived::{DerivedValue as V, Method};
-use crate::model::{Case, Eye};
+use crate::model::Eye;
 use crate::sources as src;
 use parax_optics::near;
 use parax_optics::refraction::{FarPoint, SphCyl};
@@ -14,7 +16,7 @@ use parax_optics::vertex::{round_to_step, transfer_sphcyl};
 /// Working distance for the add suggestion, metres (common practice).
 const WORKING_DISTANCE: f64 = 0.40;
 
-pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
+pub(crate) fn compute(case: &Context<'_>, e: &Eye, out: &mut Out<'_>) {
     let Some(age) = e.age.as_ref().or(case.info.age.as_ref()) else {
         return;
     };
@@ -22,19 +24,19 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
     let span = e.age.as_ref().map_or(e.span, |a| a.span);
     for (name, label, v, f) in [
         (
-            "amplitude-min",
+            keys::AMPLITUDE_MIN,
             "expected amplitude of accommodation, minimum",
             lo,
             "15 − 0.25·age",
         ),
         (
-            "amplitude-mean",
+            keys::AMPLITUDE_MEAN,
             "expected amplitude of accommodation, mean",
             mean,
             "18.5 − 0.30·age",
         ),
         (
-            "amplitude-max",
+            keys::AMPLITUDE_MAX,
             "expected amplitude of accommodation, maximum",
             hi,
             "25 − 0.40·age",
@@ -69,7 +71,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
                 },
             };
             out.push(
-                ["near-point-1", "near-point-2"][i],
+                [keys::NEAR_POINT_1, keys::NEAR_POINT_2][i],
                 [
                     "near point without correction, mean amplitude, meridian 1",
                     "near point without correction, mean amplitude, meridian 2",
@@ -95,7 +97,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
     }
     let suggested = round_to_step(near::add_keeping_half(WORKING_DISTANCE, mean), 0.25);
     out.push(
-        "add-suggested",
+        keys::ADD_SUGGESTED,
         "add keeping half the mean amplitude in reserve, at 40 cm",
         V::Power {
             dioptres: suggested,
@@ -118,9 +120,13 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
     if let Some(add) = &e.add {
         let (far, nearp) = near::clear_range(add.value, mean);
         for (name, label, d) in [
-            ("clear-far", "far end of clear vision through the add", far),
             (
-                "clear-near",
+                keys::CLEAR_FAR,
+                "far end of clear vision through the add",
+                far,
+            ),
+            (
+                keys::CLEAR_NEAR,
                 "near end of clear vision through the add",
                 nearp,
             ),

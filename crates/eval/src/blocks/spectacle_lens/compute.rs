@@ -4,11 +4,14 @@
 //! magnification, verification of a received lens against ANSI Z80.1-2015, and
 //! for the frame the optical-centre drop, prism imbalance and aniseikonia.
 
-use super::{current_eye, first_frame, n4, sphcyl, Out};
+use super::keys;
+use crate::blocks::frame::oc_height;
+use crate::blocks::Context;
 use crate::codes;
+use crate::compute::{n4, sphcyl, Out};
 use crate::derived::{DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
-use crate::model::{At, Case, Frame, Side, SpectacleLens};
+use crate::model::{At, Frame, Side, SpectacleLens};
 use crate::sources as src;
 use parax_optics::lens_form::{self, material_minimums};
 use parax_optics::prism::{self, prentice, Prism};
@@ -20,24 +23,11 @@ use parax_optics::vertex::{round_order, transfer_sphcyl};
 /// The formula of the power as worn in a tilted frame.
 const AS_WORN_FORMULA: &str = "F_t = (1 + sin²γ/2n)·A⁻ᵀ·F·A⁻¹, A the lens plane projected along the line of sight, cos γ = cos p·cos f; sphere: S(1 + sin²γ/2n), C = S'·tan²γ about the tilt axis";
 
-/// `spectacle-lens.right` or `spectacle-lens.left`.
-pub fn block_id(l: &SpectacleLens) -> String {
-    format!("spectacle-lens.{}", l.side.name())
-}
-
-/// `frame` or `frame.<slug of the name>`.
-pub fn frame_id(f: &Frame) -> String {
-    match &f.name {
-        Some(n) => format!("frame.{}", super::slug(n)),
-        None => "frame".into(),
-    }
-}
-
 /// Index used when a lens records none, for tilt only (thickness needs a recorded
 /// index): 1.5, a common crown/CR-39 value [CP].
 const DEFAULT_INDEX: f64 = 1.5;
 
-fn power(l: &SpectacleLens) -> Option<SphCyl> {
+pub(crate) fn power(l: &SpectacleLens) -> Option<SphCyl> {
     l.power
         .as_ref()
         .map(|p| SphCyl::new(p.value.sphere, p.value.cylinder, p.value.axis))
@@ -68,7 +58,7 @@ fn oblique_note(t: &Tilt) -> String {
     )
 }
 
-fn side_eye(s: Side) -> prism::Eye {
+pub(crate) fn side_eye(s: Side) -> prism::Eye {
     match s {
         Side::Right => prism::Eye::Right,
         Side::Left => prism::Eye::Left,
@@ -90,21 +80,21 @@ fn with_prescribed(mut p: Prism, l: &SpectacleLens) -> Prism {
 
 /// Horizontal offset of the pupil from the optical centre, nasal positive:
 /// half the centre distance minus the monocular PD.
-fn nasal_offset(case: &Case, f: &Frame, l: &SpectacleLens) -> Option<f64> {
+pub(crate) fn nasal_offset(case: &Context<'_>, f: &Frame, l: &SpectacleLens) -> Option<f64> {
     let cd = f.centre_distance.as_ref()?.value;
-    let pd = current_eye(case, l.side)?.pd.as_ref()?.value;
+    let pd = case.current_eye(l.side)?.pd.as_ref()?.value;
     Some(cd / 2.0 - pd)
 }
 
-struct Prisms {
-    distance: Option<(Prism, String)>,
-    reading: Option<(Prism, String)>,
+pub(crate) struct Prisms {
+    pub(crate) distance: Option<(Prism, String)>,
+    pub(crate) reading: Option<(Prism, String)>,
     /// The horizontal offset of the reading point is known (centre distance and PD).
-    reading_horizontal: bool,
+    pub(crate) reading_horizontal: bool,
 }
 
-fn prisms(case: &Case, l: &SpectacleLens) -> Prisms {
-    let (Some(rx), Some(f)) = (power(l), first_frame(case)) else {
+pub(crate) fn prisms(case: &Context<'_>, l: &SpectacleLens) -> Prisms {
+    let (Some(rx), Some(f)) = (power(l), case.first_frame()) else {
         return Prisms {
             distance: None,
             reading: None,
@@ -152,7 +142,7 @@ fn vertical(p: &Prism) -> V {
     }
 }
 
-fn horizontal(p: f64) -> V {
+pub(crate) fn horizontal(p: f64) -> V {
     V::Prism {
         dioptres: p.abs(),
         base: if p >= 0.0 { "BI" } else { "BO" },
@@ -232,15 +222,15 @@ struct Edged {
     span: parax_syntax::Span,
 }
 
-fn edged(case: &Case, l: &SpectacleLens) -> Option<Edged> {
-    let f = first_frame(case)?;
+fn edged(case: &Context<'_>, l: &SpectacleLens) -> Option<Edged> {
+    let f = case.first_frame()?;
     let boxed = f.boxed_lens_size.as_ref()?;
     let (a, b) = boxed.value;
     let dbl = f.distance_between_lenses.as_ref()?.value;
     // Where the optical centres are: the frame's centre distance, else at the pupils.
     let half_cd = match &f.centre_distance {
         Some(cd) => cd.value / 2.0,
-        None => current_eye(case, l.side)?.pd.as_ref()?.value,
+        None => case.current_eye(l.side)?.pd.as_ref()?.value,
     };
     let horizontal = (a + dbl) / 2.0 - half_cd;
     let vertical = oc_height(f).map_or(0.0, |(h, _)| h - b / 2.0);
@@ -267,21 +257,9 @@ fn edged(case: &Case, l: &SpectacleLens) -> Option<Edged> {
     })
 }
 
-/// Recommended height of the optical centre above the lowest point of the rim:
-/// the fitting height lowered by the optical-centre drop for the tilt. Metres,
-/// with the drop used.
-fn oc_height(f: &Frame) -> Option<(f64, f64)> {
-    let h = f.fitting_height.as_ref()?.value;
-    let drop = f
-        .pantoscopic_tilt
-        .as_ref()
-        .map_or(0.0, |t| tilt::optical_centre_drop(t.value));
-    Some((h - drop, drop))
-}
-
-fn magnification(case: &Case, l: &SpectacleLens) -> Option<(f64, String)> {
+pub(crate) fn magnification(case: &Context<'_>, l: &SpectacleLens) -> Option<(f64, String)> {
     let f = form(l)?;
-    let vertex = first_frame(case)?.vertex.as_ref()?.value;
+    let vertex = case.first_frame()?.vertex.as_ref()?.value;
     let bvp = power(l)?.spherical_equivalent();
     let h = lens_form::entrance_pupil_distance(vertex);
     let (shape, pw, sm) = lens_form::spectacle_magnification(f.f1, f.centre, f.index, bvp, h);
@@ -301,13 +279,13 @@ fn magnification(case: &Case, l: &SpectacleLens) -> Option<(f64, String)> {
     ))
 }
 
-pub(super) fn compute(
-    case: &Case,
+pub(crate) fn compute(
+    case: &Context<'_>,
     l: &SpectacleLens,
     out: &mut Out<'_>,
     diags: &mut Vec<Diagnostic>,
 ) {
-    let frame = first_frame(case);
+    let frame = case.first_frame();
     let index = lens_index(l).unwrap_or(DEFAULT_INDEX);
     let index_note = if l.index.is_some() {
         format!("n = {index}")
@@ -323,7 +301,7 @@ pub(super) fn compute(
         if t.pantoscopic_deg != 0.0 || t.face_form_deg != 0.0 {
             let worn = tilt::as_worn(&rx, t, index);
             out.push(
-                "as-worn",
+                keys::AS_WORN,
                 "power as worn (tilt)",
                 sphcyl(&worn),
                 pspan,
@@ -372,7 +350,7 @@ pub(super) fn compute(
             }
         }
     }
-    if let (Some(eye), Some(f)) = (current_eye(case, l.side), frame) {
+    if let (Some(eye), Some(f)) = (case.current_eye(l.side), frame) {
         if let Some(r) = &eye.refraction {
             let mut target = SphCyl::new(r.value.rx.sphere, r.value.rx.cylinder, r.value.rx.axis);
             let mut steps = vec![format!("prescription {}", sphcyl(&target).display())];
@@ -397,7 +375,7 @@ pub(super) fn compute(
                 sphcyl(&order).display()
             ));
             out.push(
-                "compensated",
+                keys::COMPENSATED,
                 "power to order (vertex and tilt compensated)",
                 sphcyl(&order),
                 l.span,
@@ -407,7 +385,7 @@ pub(super) fn compute(
             .caution = Some(src::CAUTION_ORDER);
             let rounded = round_order(&order, 0.25);
             out.push(
-                "compensated-rounded",
+                keys::COMPENSATED_ROUNDED,
                 "power to order, to 0.25 D and whole degrees",
                 sphcyl(&rounded),
                 l.span,
@@ -426,7 +404,7 @@ pub(super) fn compute(
     let p = prisms(case, l);
     if let Some((d, why)) = &p.distance {
         out.push(
-            "distance-prism-horizontal",
+            keys::DISTANCE_PRISM_HORIZONTAL,
             "horizontal prism at the distance pupil",
             horizontal(d.base_in),
             l.span,
@@ -439,7 +417,7 @@ pub(super) fn compute(
     }
     if let Some((r, why)) = &p.reading {
         out.push(
-            "reading-prism-vertical",
+            keys::READING_PRISM_VERTICAL,
             "vertical prism at the reading point",
             vertical(r),
             l.span,
@@ -451,7 +429,7 @@ pub(super) fn compute(
         );
         if p.reading_horizontal {
             out.push(
-                "reading-prism-horizontal",
+                keys::READING_PRISM_HORIZONTAL,
                 "horizontal prism at the reading point",
                 horizontal(r.base_in),
                 l.span,
@@ -468,7 +446,7 @@ pub(super) fn compute(
     edged_thickness(case, l, out, diags);
     if let Some((sm, why)) = magnification(case, l) {
         out.push(
-            "magnification",
+            keys::MAGNIFICATION,
             "spectacle magnification",
             V::Number { value: sm },
             l.span,
@@ -531,7 +509,12 @@ fn material(l: &SpectacleLens, diags: &mut Vec<Diagnostic>) {
 /// Thickness of the lens edged to the frame shape: the semi-aperture is the
 /// distance to the farthest point (ED/2 + decentration); the minimum blank size
 /// is ED + 2 × decentration.
-fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+fn edged_thickness(
+    case: &Context<'_>,
+    l: &SpectacleLens,
+    out: &mut Out<'_>,
+    diags: &mut Vec<Diagnostic>,
+) {
     let Some(e) = edged(case, l) else { return };
     let why = || {
         format!(
@@ -542,7 +525,7 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
         )
     };
     out.push(
-        "decentration",
+        keys::DECENTRATION,
         "decentration of the optical centre from the boxed centre",
         V::Length { metres: e.total },
         e.span,
@@ -554,7 +537,7 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
     );
     let mbs = lens_form::minimum_blank(e.effective_diameter, e.total);
     out.push(
-        "minimum-blank",
+        keys::MINIMUM_BLANK,
         "minimum blank size",
         V::Length { metres: mbs },
         e.span,
@@ -604,7 +587,7 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
         )
     };
     out.push(
-        "edged-thickness-centre",
+        keys::EDGED_THICKNESS_CENTRE,
         "centre thickness of the lens edged to the frame",
         V::Length { metres: f.centre },
         e.span,
@@ -612,7 +595,7 @@ fn edged_thickness(case: &Case, l: &SpectacleLens, out: &mut Out<'_>, diags: &mu
         why,
     );
     out.push(
-        "edged-thickness-edge",
+        keys::EDGED_THICKNESS_EDGE,
         "edge thickness at the farthest point of the edged lens (strongest meridian)",
         V::Length { metres: f.edge },
         e.span,
@@ -640,7 +623,7 @@ fn thickness(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) 
     };
     let span = l.blank_diameter.as_ref().map_or(l.span, |d| d.span);
     out.push(
-        "thickness-centre",
+        keys::THICKNESS_CENTRE,
         "centre thickness",
         V::Length { metres: f.centre },
         span,
@@ -651,7 +634,7 @@ fn thickness(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) 
         why,
     );
     out.push(
-        "thickness-edge",
+        keys::THICKNESS_EDGE,
         "edge thickness (strongest meridian, uncut blank)",
         V::Length { metres: f.edge },
         span,
@@ -703,7 +686,7 @@ fn thickness(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) 
 }
 
 /// (horizontal, vertical) components of a recorded prism: base in and base up positive.
-fn components(p: &crate::model::PrismRx) -> (f64, f64) {
+pub(crate) fn components(p: &crate::model::PrismRx) -> (f64, f64) {
     match p.base.as_str() {
         "BU" => (0.0, p.amount),
         "BD" => (0.0, -p.amount),
@@ -721,15 +704,15 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
         let measured = SphCyl::new(m.value.sphere, m.value.cylinder, m.value.axis);
         let v = verify::verify(&ordered, &measured);
         parts.push((
-            "check-sphere",
+            keys::CHECK_SPHERE,
             "sphere (strongest meridian)",
             v.sphere,
             "D",
             m.span,
         ));
-        parts.push(("check-cylinder", "cylinder", v.cylinder, "D", m.span));
+        parts.push((keys::CHECK_CYLINDER, "cylinder", v.cylinder, "D", m.span));
         if let Some(a) = v.axis {
-            parts.push(("check-axis", "axis", a, "°", m.span));
+            parts.push((keys::CHECK_AXIS, "axis", a, "°", m.span));
         }
         compared.push(format!(
             "power ordered {}, measured {}",
@@ -739,7 +722,7 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
     }
     if let (Some(o), Some(m)) = (&l.add, &l.measured_add) {
         parts.push((
-            "check-add",
+            keys::CHECK_ADD,
             "add",
             Check {
                 ordered: o.value,
@@ -765,7 +748,7 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
             .map_or((0.0, 0.0), |p| components(&p.value));
         let diff = (mh - oh).hypot(mv - ov);
         parts.push((
-            "check-prism",
+            keys::CHECK_PRISM,
             "prism at the reference point (size of the difference from the order)",
             Check {
                 ordered: 0.0,
@@ -828,7 +811,7 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
         }
     }
     out.push(
-        "verification",
+        keys::VERIFICATION,
         format!("received lens against the order ({})", verify::STANDARD),
         V::Text {
             text: if all { "pass" } else { "fail" }.into(),
@@ -841,321 +824,6 @@ fn verification(l: &SpectacleLens, out: &mut Out<'_>, diags: &mut Vec<Diagnostic
         || compared.join("; "),
     );
 }
-
-/// Values of the frame: optical-centre drop, prism imbalance between the eyes and
-/// aniseikonia, from the first lens of each side.
-pub(super) fn compute_frame(
-    case: &Case,
-    f: &Frame,
-    out: &mut Out<'_>,
-    diags: &mut Vec<Diagnostic>,
-) {
-    if let Some(t) = &f.pantoscopic_tilt {
-        let drop = tilt::optical_centre_drop(t.value);
-        out.push(
-            "oc-drop",
-            "optical-centre drop for the pantoscopic tilt",
-            V::Length { metres: drop },
-            t.span,
-            &Method {
-                formula: "drop ≈ 0.5 mm per degree of pantoscopic tilt",
-                source: src::OC_DROP,
-            },
-            || format!("0.5 mm × {} = {} mm", n4(t.value), n4(drop * 1000.0)),
-        );
-    }
-    if let Some((h, drop)) = oc_height(f) {
-        out.push(
-            "oc-height",
-            "recommended optical-centre height above the lowest point of the rim",
-            V::Length { metres: h },
-            f.fitting_height.as_ref().map_or(f.span, |h| h.span),
-            &OC_HEIGHT,
-            || {
-                format!(
-                    "{} mm − {} mm = {} mm",
-                    n4((h + drop) * 1000.0),
-                    n4(drop * 1000.0),
-                    n4(h * 1000.0)
-                )
-            },
-        );
-    }
-    // Only the first frame carries the pair's values (lenses are fitted in it).
-    if !first_frame(case).is_some_and(|ff| std::ptr::eq(ff, f)) {
-        return;
-    }
-    let lens = |s: Side| case.spectacle_lenses.iter().find(|l| l.side == s);
-    let (Some(r), Some(l)) = (lens(Side::Right), lens(Side::Left)) else {
-        return;
-    };
-    mounted_pair(case, f, r, l, out, diags);
-    let (pr, pl) = (prisms(case, r), prisms(case, l));
-    if let (Some((a, _)), Some((b, _))) = (&pr.reading, &pl.reading) {
-        let imb = prism::vertical_imbalance(a, b);
-        let span = f.reading_drop.as_ref().map_or(f.span, |d| d.span);
-        out.push(
-            "reading-vertical-imbalance",
-            "vertical prism imbalance at the reading point",
-            V::Prism {
-                dioptres: imb,
-                base: "",
-            },
-            span,
-            &Method {
-                formula: "|P_v(right) − P_v(left)| with base up positive",
-                source: src::PRISM_TOLERANCE,
-            },
-            || {
-                format!(
-                    "right {:+.4}Δ, left {:+.4}Δ (base up +) → {}Δ",
-                    a.base_up,
-                    b.base_up,
-                    n4(imb)
-                )
-            },
-        );
-        if imb > prism::VERTICAL_TOLERANCE + 1e-9 {
-            let slab = if imb > prism::SLAB_OFF_CONSIDER {
-                "; slab-off (bicentric grinding) on the more minus lens is worth considering"
-            } else {
-                ""
-            };
-            diags.push(
-                Diagnostic::new(
-                    codes::VERTICAL_IMBALANCE,
-                    Severity::Warning,
-                    span,
-                    format!(
-                        "vertical imbalance of {imb:.2}Δ at the reading point exceeds about {:.0}Δ{slab}",
-                        prism::VERTICAL_TOLERANCE
-                    ),
-                )
-                .hint("options: a higher reading position, separate reading glasses, contact lenses, slab-off [CP]")
-                .caution(src::CAUTION_ORDER),
-            );
-        }
-    }
-    if let (Some((a, _)), Some((b, _))) = (&pr.distance, &pl.distance) {
-        let net = prism::horizontal_net(a, b);
-        let span = f.centre_distance.as_ref().map_or(f.span, |d| d.span);
-        out.push(
-            "distance-horizontal-prism",
-            "net horizontal prism at the distance pupils",
-            horizontal(net),
-            span,
-            &Method {
-                formula: "P_h(right) + P_h(left), base in positive",
-                source: src::PRISM_TOLERANCE,
-            },
-            || format!("{:+.4}Δ + {:+.4}Δ = {}Δ", a.base_in, b.base_in, n4(net)),
-        );
-        if net.abs() > prism::HORIZONTAL_TOLERANCE + 1e-9 {
-            diags.push(
-                Diagnostic::new(
-                    codes::HORIZONTAL_PRISM,
-                    Severity::Warning,
-                    span,
-                    format!(
-                        "net horizontal prism {:.2}Δ {} exceeds about {:.0}Δ",
-                        net.abs(),
-                        if net >= 0.0 { "base in" } else { "base out" },
-                        prism::HORIZONTAL_TOLERANCE
-                    ),
-                )
-                .hint("check the centre distance against the pupillary distances")
-                .caution(src::CAUTION_ORDER),
-            );
-        }
-    }
-    if let (Some((a, wa)), Some((b, wb))) = (magnification(case, r), magnification(case, l)) {
-        let pct = (a / b - 1.0) * 100.0;
-        out.push(
-            "aniseikonia",
-            "aniseikonia estimate, % (right relative to left)",
-            V::Number { value: pct },
-            f.span,
-            &Method {
-                formula: "(SM_right / SM_left − 1) × 100",
-                source: src::ANISEIKONIA,
-            },
-            || {
-                format!(
-                    "right: {wa}; left: {wb}; ({} / {} − 1) × 100 = {}",
-                    n4(a),
-                    n4(b),
-                    n4(pct)
-                )
-            },
-        );
-    }
-}
-
-/// Prism at a pupil that the received lens adds beyond the order: Prentice's rule
-/// with the measured power at the decentration (centre distance / 2 − PD), plus
-/// the measured prism at the reference point minus the prism ordered.
-fn unwanted_prism(case: &Case, f: &Frame, l: &SpectacleLens) -> Option<(Prism, SphCyl)> {
-    let m = l.measured.as_ref()?;
-    let measured = SphCyl::new(m.value.sphere, m.value.cylinder, m.value.axis);
-    let c = nasal_offset(case, f, l)?;
-    let mut p = prentice(&measured, side_eye(l.side), c, 0.0);
-    if let Some(mp) = &l.measured_prism {
-        let (h, v) = components(&mp.value);
-        p.base_in += h;
-        p.base_up += v;
-    }
-    if let Some(op) = &l.prism {
-        let (h, v) = components(&op.value);
-        p.base_in -= h;
-        p.base_up -= v;
-    }
-    Some((p, measured))
-}
-
-/// The received pair as mounted, against ANSI Z80.1-2015: vertical imbalance
-/// (0.33Δ, up to 3.375 D in the vertical meridian) and horizontal imbalance
-/// (0.67Δ, up to 2.75 D in the horizontal meridian; above it the centre distance
-/// within ±2.5 mm of the PDs [S: quick reference guide]).
-fn mounted_pair(
-    case: &Case,
-    f: &Frame,
-    r: &SpectacleLens,
-    l: &SpectacleLens,
-    out: &mut Out<'_>,
-    diags: &mut Vec<Diagnostic>,
-) {
-    let (Some((pr, mr)), Some((pl, ml))) = (unwanted_prism(case, f, r), unwanted_prism(case, f, l))
-    else {
-        return;
-    };
-    let span = f.centre_distance.as_ref().map_or(f.span, |d| d.span);
-    let vertical = prism::vertical_imbalance(&pr, &pl);
-    let horizontal = prism::horizontal_net(&pr, &pl);
-    let why = |what: &str, a: f64, b: f64, total: f64| {
-        format!(
-            "measured right {}, left {} at the pupils (centre distance / 2 − PD): {what} right {a:+.4}Δ, left {b:+.4}Δ → {}Δ",
-            sphcyl(&mr).display(),
-            sphcyl(&ml).display(),
-            n4(total)
-        )
-    };
-    out.push(
-        "mounted-vertical-imbalance",
-        "vertical prism imbalance of the received pair at the pupils",
-        V::Prism {
-            dioptres: vertical,
-            base: "",
-        },
-        span,
-        &Method {
-            formula: "|P_v(right) − P_v(left)|, P = −F_measured·c plus measured − ordered prism",
-            source: src::MOUNTED_PAIR,
-        },
-        || why("base up +", pr.base_up, pl.base_up, vertical),
-    );
-    out.push(
-        "mounted-horizontal-imbalance",
-        "net horizontal prism of the received pair at the pupils",
-        self::horizontal(horizontal),
-        span,
-        &MOUNTED_HORIZONTAL_IMBALANCE,
-        || why("base in +", pr.base_in, pl.base_in, horizontal),
-    );
-    let checks = [
-        (
-            "check-mounted-vertical",
-            "vertical imbalance",
-            true,
-            vertical,
-            [mr.meridian_power(90.0), ml.meridian_power(90.0)],
-            verify::VERTICAL_IMBALANCE_UP_TO,
-        ),
-        (
-            "check-mounted-horizontal",
-            "horizontal imbalance",
-            false,
-            horizontal.abs(),
-            [mr.meridian_power(180.0), ml.meridian_power(180.0)],
-            verify::HORIZONTAL_IMBALANCE_UP_TO,
-        ),
-    ];
-    for (name, what, is_vertical, got, powers, up_to) in checks {
-        let strongest = powers[0].abs().max(powers[1].abs());
-        let (pass, band, detail) = match verify::mounted_imbalance_tolerance(is_vertical, powers) {
-            Some(tol) => (
-                Some(got <= tol + 1e-9),
-                format!("0 to {tol:.2}Δ"),
-                format!(
-                    "{what} {}Δ; strongest power in the meridian {} D ≤ {up_to} D, so the band is 0 to {tol:.2}Δ",
-                    n4(got),
-                    n4(strongest)
-                ),
-            ),
-            None if !is_vertical => {
-                // Above 2.75 D the standard checks the optical-centre positions
-                // instead: centre distance within ±2.5 mm of the ordered PD [S: quick reference guide of the standard].
-                let Some(cd) = f.centre_distance.as_ref().map(|c| c.value) else {
-                    continue;
-                };
-                let pds = [r, l]
-                    .iter()
-                    .map(|x| current_eye(case, x.side).and_then(|e| e.pd.as_ref().map(|p| p.value)))
-                    .sum::<Option<f64>>();
-                let Some(pd) = pds else { continue };
-                let tol = verify::CENTRE_DISTANCE_TOLERANCE;
-                (
-                    Some((cd - pd).abs() <= tol + 1e-9),
-                    format!("{:.1} to {:.1} mm", (pd - tol) * 1000.0, (pd + tol) * 1000.0),
-                    format!(
-                        "strongest power in the horizontal meridian {} D > {up_to} D: centre distance {} mm against PD {} mm ± 2.5 mm",
-                        n4(strongest),
-                        n4(cd * 1000.0),
-                        n4(pd * 1000.0)
-                    ),
-                )
-            }
-            None => (
-                None,
-                String::new(),
-                format!(
-                    "strongest power in the vertical meridian {} D > {up_to} D: the standard then limits the difference in optical-centre heights, which is not recorded here",
-                    n4(strongest)
-                ),
-            ),
-        };
-        out.push(
-            name,
-            format!("mounted pair {what} within {}", verify::STANDARD),
-            V::Text {
-                text: match pass {
-                    Some(true) => "pass",
-                    Some(false) => "fail",
-                    None => "not applicable",
-                }
-                .into(),
-            },
-            span,
-            &MOUNTED_PAIR_TOLERANCE,
-            || detail,
-        );
-        if pass == Some(false) {
-            diags.push(
-                Diagnostic::new(
-                    codes::MOUNTED_IMBALANCE,
-                    Severity::Warning,
-                    span,
-                    format!(
-                        "the received pair's {what} is outside {band} ({})",
-                        verify::STANDARD
-                    ),
-                )
-                .hint("re-measure the optical centres and the PDs; return the pair to the laboratory if confirmed")
-                .caution(src::CAUTION_ORDER),
-            );
-        }
-    }
-}
-
 /// The power to order so that the lens gives the prescription as worn.
 const COMPENSATED_ORDER: Method = Method {
     formula: "F = Aᵀ·F_rx·A/(1 + sin²γ/2n), F_rx moved to the frame's vertex by F' = F/(1 − d·F)",
@@ -1174,24 +842,4 @@ const EDGED_THICKNESS_CENTRE: Method = Method {
     formula:
         "minus: centre = minimum; plus: centre = edge + s_front − s_back, at the farthest point",
     source: src::SAG,
-};
-
-/// Optical-centre height: the fitting height less the drop for pantoscopic tilt.
-const OC_HEIGHT: Method = Method {
-    formula:
-        "OC height = fitting height − optical-centre drop (0.5 mm per degree of pantoscopic tilt)",
-    source: src::OC_HEIGHT,
-};
-
-/// Horizontal prism imbalance of a mounted pair.
-const MOUNTED_HORIZONTAL_IMBALANCE: Method = Method {
-    formula: "P_h(right) + P_h(left), base in +, P = −F_measured·c plus measured − ordered prism",
-    source: src::MOUNTED_PAIR,
-};
-
-/// The tolerance a mounted pair is checked against.
-const MOUNTED_PAIR_TOLERANCE: Method = Method {
-    formula:
-        "ANSI Z80.1-2015 mounted pair: vertical ≤ 0.33Δ (≤ 3.375 D), horizontal ≤ 0.67Δ (≤ 2.75 D)",
-    source: src::MOUNTED_PAIR,
 };

@@ -2,11 +2,13 @@
 //! plane, a soft-lens suggestion (spherical equivalent or toric), and for a rigid
 //! lens the tear lens, the lens power and the residual astigmatism.
 
-use super::{current_eye, n4, sphcyl, Out};
+use super::keys;
+use crate::blocks::Context;
 use crate::codes;
+use crate::compute::{n4, sphcyl, Out};
 use crate::derived::{DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
-use crate::model::{Case, ContactLens};
+use crate::model::ContactLens;
 use crate::sources as src;
 use parax_optics::contact;
 use parax_optics::keratometry::{keratometric_power, KERATOMETRIC_INDEX};
@@ -71,7 +73,7 @@ fn ordered_power(
     let ordered = SphCyl::new(p.value.sphere, p.value.cylinder, p.value.axis);
     let diff = contact::largest_meridian_difference(&ordered, computed);
     out.push(
-        "power-difference",
+        keys::POWER_DIFFERENCE,
         "largest difference in any meridian between the power ordered and the power computed",
         V::Power { dioptres: diff },
         p.span,
@@ -106,8 +108,8 @@ fn ordered_power(
     }
 }
 
-pub(super) fn compute(
-    case: &Case,
+pub(crate) fn compute(
+    case: &Context<'_>,
     c: &ContactLens,
     out: &mut Out<'_>,
     diags: &mut Vec<Diagnostic>,
@@ -117,7 +119,7 @@ pub(super) fn compute(
         None => c.base_curve.is_some(),
     };
     diameter(c, rigid, diags);
-    let Some(eye) = current_eye(case, c.side) else {
+    let Some(eye) = case.current_eye(c.side) else {
         return incomplete(
             c,
             "an `eye` block of the same side with a refraction",
@@ -137,7 +139,7 @@ pub(super) fn compute(
     let rx = SphCyl::new(r.value.rx.sphere, r.value.rx.cylinder, r.value.rx.axis);
     let corneal = contact::corneal_plane(&rx, vertex).minus_cyl();
     out.push(
-        "corneal-plane",
+        keys::CORNEAL_PLANE,
         "refraction at the corneal plane",
         sphcyl(&corneal),
         c.span,
@@ -158,7 +160,7 @@ pub(super) fn compute(
     if !rigid {
         let toric = contact::soft_is_toric(&corneal);
         out.push(
-            "soft-design",
+            keys::SOFT_DESIGN,
             "soft lens design suggested",
             V::Text {
                 text: if toric { "toric" } else { "spherical" }.into(),
@@ -187,7 +189,7 @@ pub(super) fn compute(
             )
         };
         out.push(
-            "soft-power",
+            keys::SOFT_POWER,
             "soft lens power suggested, to 0.25 D",
             sphcyl(&lens),
             c.span,
@@ -239,7 +241,7 @@ pub(super) fn compute(
     };
     let tear = contact::tear_lens(bc.value, flat.0);
     out.push(
-        "tear-lens",
+        keys::TEAR_LENS,
         "tear lens power",
         V::Power { dioptres: tear },
         bc.span,
@@ -259,7 +261,7 @@ pub(super) fn compute(
     .caution = Some(src::CAUTION_CONTACT);
     let p = contact::rigid_power(&corneal, flat.1, tear);
     out.push(
-        "rigid-power",
+        keys::RIGID_POWER,
         "rigid lens power",
         V::Power { dioptres: p },
         bc.span,
@@ -287,7 +289,7 @@ pub(super) fn compute(
     );
     let pr = round_to_step(p, 0.25);
     out.push(
-        "rigid-power-rounded",
+        keys::RIGID_POWER_ROUNDED,
         "rigid lens power, to 0.25 D",
         V::Power { dioptres: pr },
         bc.span,
@@ -301,7 +303,7 @@ pub(super) fn compute(
     let cc = contact::corneal_cylinder(flat.0, flat.1, steep.0);
     let (rc, ra) = contact::residual_astigmatism(&corneal, &cc);
     out.push(
-        "residual-astigmatism",
+        keys::RESIDUAL_ASTIGMATISM,
         "residual astigmatism under a spherical rigid lens",
         V::Cylinder {
             dioptres: rc,

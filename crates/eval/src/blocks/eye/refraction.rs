@@ -2,11 +2,13 @@
 //! power vectors, principal meridians, far points, vertex transfer, near
 //! refraction, keratometry and total corneal power.
 
-use super::{n4, Out};
+use super::keys;
+use crate::blocks::Context;
 use crate::codes;
+use crate::compute::{n4, Out};
 use crate::derived::{fmt_power, DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
-use crate::model::{Case, Eye};
+use crate::model::Eye;
 use crate::sources as src;
 use parax_optics::keratometry::{
     corneal_astigmatism, keratometric_power, total_corneal_power, AstigmatismKind, CornealIndices,
@@ -14,14 +16,6 @@ use parax_optics::keratometry::{
 };
 use parax_optics::refraction::{FarPoint, SphCyl};
 use parax_optics::vertex::{round_order, transfer_sphcyl, MEANINGFUL_CHANGE_THRESHOLD_D};
-
-/// `eye.right`, or `eye.right.2026-10-02` for a dated visit.
-pub fn block_id(e: &Eye) -> String {
-    match &e.date {
-        Some(d) => format!("eye.{}.{d}", e.side.name()),
-        None => format!("eye.{}", e.side.name()),
-    }
-}
 
 fn sphcyl(rx: &SphCyl) -> V {
     V::SphCyl {
@@ -35,7 +29,7 @@ fn show(rx: &SphCyl) -> String {
     sphcyl(rx).display()
 }
 
-pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+pub(crate) fn compute(case: &Context<'_>, e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
     if let Some(r) = &e.refraction {
         refraction(case, e, r, out, diags);
     }
@@ -45,7 +39,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>, diags: &mut Vec<D
 }
 
 fn refraction(
-    case: &Case,
+    case: &Context<'_>,
     e: &Eye,
     r: &crate::model::At<crate::model::Refraction>,
     out: &mut Out<'_>,
@@ -59,8 +53,8 @@ fn refraction(
         let minus = rx.minus_cyl();
         let plus = rx.plus_cyl();
         for (name, label, form) in [
-            ("minus-cyl", "minus-cylinder form", minus),
-            ("plus-cyl", "plus-cylinder form", plus),
+            (keys::MINUS_CYL, "minus-cylinder form", minus),
+            (keys::PLUS_CYL, "plus-cylinder form", plus),
         ] {
             out.push(
                 name,
@@ -77,7 +71,7 @@ fn refraction(
     }
     let m = rx.spherical_equivalent();
     out.push(
-        "spherical-equivalent",
+        keys::SPHERICAL_EQUIVALENT,
         "spherical equivalent",
         V::Power { dioptres: m },
         span,
@@ -90,7 +84,7 @@ fn refraction(
     let pv = rx.power_vector();
     let t2 = || format!("2θ = {}°", n4(2.0 * a));
     out.push(
-        "vector-j0",
+        keys::VECTOR_J0,
         "power vector J0",
         V::Power { dioptres: pv.j0 },
         span,
@@ -101,7 +95,7 @@ fn refraction(
         || format!("J0 = −({}/2)·cos({}) = {}", n4(c), t2(), n4(pv.j0)),
     );
     out.push(
-        "vector-j45",
+        keys::VECTOR_J45,
         "power vector J45",
         V::Power { dioptres: pv.j45 },
         span,
@@ -113,7 +107,7 @@ fn refraction(
     );
     let b = pv.blur_strength();
     out.push(
-        "blur-strength",
+        keys::BLUR_STRENGTH,
         "blur strength",
         V::Power { dioptres: b },
         span,
@@ -134,7 +128,7 @@ fn refraction(
     let meridians = rx.principal_meridians();
     for (i, mer) in meridians.iter().enumerate() {
         out.push(
-            ["meridian-1", "meridian-2"][i],
+            [keys::MERIDIAN_1, keys::MERIDIAN_2][i],
             ["principal meridian 1", "principal meridian 2"][i],
             V::Meridian {
                 dioptres: mer.power,
@@ -179,7 +173,7 @@ fn refraction(
             },
         };
         out.push(
-            ["far-point-1", "far-point-2"][i],
+            [keys::FAR_POINT_1, keys::FAR_POINT_2][i],
             ["far point, meridian 1", "far point, meridian 2"][i],
             value,
             span,
@@ -204,7 +198,7 @@ fn refraction(
                 &rx,
                 d,
                 0.0,
-                ["corneal-plane", "corneal-plane-rounded"],
+                [keys::CORNEAL_PLANE, keys::CORNEAL_PLANE_ROUNDED],
                 ["at the corneal plane", "at the corneal plane, to 0.25 D"],
                 span,
                 out,
@@ -235,18 +229,13 @@ fn refraction(
         ),
         None => {}
     }
-    if let (Some(d), Some(fv)) = (
-        vertex,
-        case.frames
-            .iter()
-            .find_map(|f| f.vertex.as_ref().map(|v| v.value)),
-    ) {
+    if let (Some(d), Some(fv)) = (vertex, case.frame_vertex()) {
         if (fv - d).abs() > 1e-9 {
             vertex_transfer(
                 &rx,
                 d,
                 fv,
-                ["at-frame-vertex", "at-frame-vertex-rounded"],
+                [keys::AT_FRAME_VERTEX, keys::AT_FRAME_VERTEX_ROUNDED],
                 [
                     "at the frame's vertex distance",
                     "at the frame's vertex distance, to 0.25 D",
@@ -261,7 +250,7 @@ fn refraction(
     if let Some(add) = &e.add {
         let near = SphCyl::new(s + add.value, c, a);
         out.push(
-            "near-refraction",
+            keys::NEAR_REFRACTION,
             "near refraction",
             sphcyl(&near),
             add.span,
@@ -393,8 +382,8 @@ fn keratometry(
     });
     let ast = corneal_astigmatism(readings[0], readings[1]);
     for (name, label, r) in [
-        ("k-flat", "flat K", ast.flat),
-        ("k-steep", "steep K", ast.steep),
+        (keys::K_FLAT, "flat K", ast.flat),
+        (keys::K_STEEP, "steep K", ast.steep),
     ] {
         let radius = k
             .value
@@ -418,7 +407,7 @@ fn keratometry(
         .caution = caution;
     }
     out.push(
-        "mean-k",
+        keys::MEAN_K,
         "mean K",
         V::Power {
             dioptres: ast.mean_k,
@@ -439,7 +428,7 @@ fn keratometry(
     )
     .caution = caution;
     out.push(
-        "corneal-cylinder",
+        keys::CORNEAL_CYLINDER,
         "corneal astigmatism",
         V::Cylinder {
             dioptres: ast.cylinder,
@@ -468,7 +457,7 @@ fn keratometry(
         AstigmatismKind::Oblique => "oblique",
     };
     out.push(
-        "corneal-astigmatism",
+        keys::CORNEAL_ASTIGMATISM,
         "type of corneal astigmatism",
         V::Text { text: kind.into() },
         span,
@@ -498,7 +487,7 @@ fn keratometry(
             )
         };
         out.push(
-            "total-corneal-power",
+            keys::TOTAL_CORNEAL_POWER,
             "total corneal power (thick cornea)",
             V::Power { dioptres: tp.total },
             back.span,
@@ -511,7 +500,7 @@ fn keratometry(
         .caution = caution;
         let over = ast.mean_k - tp.total;
         out.push(
-            "keratometric-excess",
+            keys::KERATOMETRIC_EXCESS,
             "mean K minus total corneal power",
             V::Power { dioptres: over },
             back.span,

@@ -3,14 +3,16 @@
 //! taken as Emsley's reduced eye (one surface, index 4/3, principal point at the
 //! cornea) of the measured axial length whose power gives the refraction.
 
-use super::{first_frame, n4, Out};
+use super::keys;
+use crate::blocks::Context;
+use crate::compute::{n4, Out};
 use crate::derived::{DerivedValue as V, Method};
-use crate::model::{Case, Eye};
+use crate::model::Eye;
 use crate::sources as src;
 use parax_optics::lens_form::relative_spectacle_magnification_axial;
 use parax_optics::model_eye::{spectacle_refraction, Schematic};
 
-pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
+pub(crate) fn compute(case: &Context<'_>, e: &Eye, out: &mut Out<'_>) {
     let (Some(r), Some(al)) = (&e.refraction, &e.axial_length) else {
         return;
     };
@@ -23,7 +25,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
     // Ocular refraction (at the cornea) of the spherical equivalent.
     let k = m / (1.0 - measured_at * m);
     // The lens as worn: at the first frame's vertex when one is recorded.
-    let (d, whence) = match first_frame(case).and_then(|f| f.vertex.as_ref()) {
+    let (d, whence) = match case.first_frame().and_then(|f| f.vertex.as_ref()) {
         Some(v) => (v.value, "the frame's vertex"),
         None => (measured_at, "the refraction's vertex"),
     };
@@ -34,7 +36,7 @@ pub(super) fn compute(case: &Case, e: &Eye, out: &mut Out<'_>) {
     let fe = n / al.value - k;
     let rsm = relative_spectacle_magnification_axial(fe, fs, d);
     out.push(
-        "relative-spectacle-magnification",
+        keys::RELATIVE_SPECTACLE_MAGNIFICATION,
         RSM_AXIAL_LABEL,
         V::Number { value: rsm },
         al.span,

@@ -3,8 +3,9 @@
 //! formula with a recorded effective lens position, and the predicted refraction
 //! of a chosen lens. Every value carries the strong IOL caution.
 
-use super::{n4, Out};
+use super::keys;
 use crate::codes;
+use crate::compute::{n4, Out};
 use crate::derived::{DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
 use crate::model::Eye;
@@ -12,7 +13,7 @@ use crate::sources as src;
 use parax_optics::iol;
 use parax_optics::keratometry::{keratometric_power, KERATOMETRIC_INDEX};
 
-pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+pub(crate) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
     let (Some(al), Some(k)) = (&e.axial_length, &e.keratometry) else {
         return;
     };
@@ -43,7 +44,7 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
             ""
         };
         out.push(
-            "iol-acd-estimate",
+            keys::IOL_ACD_ESTIMATE,
             "SRK/T estimated postoperative anterior chamber depth",
             V::Length {
                 metres: g.acd / 1000.0,
@@ -66,7 +67,7 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
         .caution = Some(src::CAUTION_IOL);
         let p = iol::srkt_power(l, mean_k, a.value, target);
         out.push(
-            "iol-power-srkt",
+            keys::IOL_POWER_SRKT,
             "IOL power for the target refraction (SRK/T)",
             V::Power { dioptres: p },
             a.span,
@@ -86,7 +87,7 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
         if let Some(chosen) = &e.iol_power {
             let r = iol::srkt_refraction(l, mean_k, a.value, chosen.value);
             out.push(
-                "iol-predicted-refraction",
+                keys::IOL_PREDICTED_REFRACTION,
                 "predicted refraction with the chosen IOL (SRK/T, at 12 mm)",
                 V::Power { dioptres: r },
                 chosen.span,
@@ -103,7 +104,7 @@ pub(super) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
         any = true;
         let p = iol::vergence_power(l, mean_k, elp.value * 1000.0, target, 12.0);
         out.push(
-            "iol-power-vergence",
+            keys::IOL_POWER_VERGENCE,
             "IOL power for the target refraction (thin-lens vergence formula)",
             V::Power { dioptres: p },
             elp.span,

@@ -2,8 +2,9 @@
 //! magnifications by step-along vergence (thin lenses and refracting surfaces); the final image; equivalent,
 //! back-vertex and front-vertex power by ray-transfer matrices.
 
-use super::{n4, slug, Out};
+use super::{element_key, keys};
 use crate::codes;
+use crate::compute::{n4, slug, Out};
 use crate::derived::{DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
 use crate::model::{ObjectAt, System, SystemElement};
@@ -27,7 +28,7 @@ fn place(p: ImagePlace, label: &str) -> V {
     }
 }
 
-pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+pub(crate) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
     let lenses: Vec<(usize, &str)> = s
         .elements
         .iter()
@@ -146,7 +147,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             chain.push_str(&line());
         }
         out.push(
-            format!("{label}.vergence-in"),
+            element_key(label, keys::VERGENCE_IN),
             format!("vergence arriving at {label}"),
             V::Power {
                 dioptres: step.incident_vergence,
@@ -159,7 +160,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             || chain.clone(),
         );
         out.push(
-            format!("{label}.vergence-out"),
+            element_key(label, keys::VERGENCE_OUT),
             format!("vergence leaving {label}"),
             V::Power {
                 dioptres: step.emergent_vergence,
@@ -186,7 +187,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             }
         };
         out.push(
-            format!("{label}.image"),
+            element_key(label, keys::IMAGE),
             format!("image formed by {label}"),
             place(step.image, label),
             span,
@@ -198,7 +199,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         );
         if let Some(m) = step.magnification {
             out.push(
-                format!("{label}.magnification"),
+                element_key(label, keys::MAGNIFICATION),
                 format!("lateral magnification at {label}"),
                 V::Number { value: m },
                 span,
@@ -220,7 +221,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
     let &(last_i, last_label) = lenses.last().expect("at least one lens");
     let last_span = s.elements[last_i].span;
     out.push(
-        "image",
+        keys::IMAGE,
         "final image",
         place(t.final_image, last_label),
         last_span,
@@ -238,7 +239,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
                 .collect()
         };
         out.push(
-            "magnification",
+            keys::MAGNIFICATION,
             "total lateral magnification",
             V::Number { value: m },
             last_span,
@@ -261,7 +262,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
         }
     };
     out.push(
-        "image-kind",
+        keys::IMAGE_KIND,
         "kind of final image",
         V::Text {
             text: kind.clone().into(),
@@ -287,7 +288,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
     };
     for (name, label, method, value) in [
         (
-            "equivalent-power",
+            keys::EQUIVALENT_POWER,
             "equivalent power",
             &Method {
                 formula: "F = −C",
@@ -296,7 +297,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             p.equivalent,
         ),
         (
-            "back-vertex-power",
+            keys::BACK_VERTEX_POWER,
             "back vertex power",
             &Method {
                 formula: "F'v = −C / A",
@@ -305,7 +306,7 @@ pub(super) fn compute(s: &System, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>
             p.back_vertex,
         ),
         (
-            "front-vertex-power",
+            keys::FRONT_VERTEX_POWER,
             "front vertex power",
             &Method {
                 formula: "Fv = −C / D",

@@ -4,11 +4,13 @@
 //! implies at the cornea and at a spectacle vertex distance, and the relative
 //! spectacle magnification of that correction.
 
-use super::{first_frame, n4, slug, Out};
+use super::keys;
+use crate::blocks::Context;
 use crate::codes;
+use crate::compute::{n4, slug, Out};
 use crate::derived::{DerivedValue as V, Method};
 use crate::diagnostic::{Diagnostic, Severity};
-use crate::model::{Case, ModelEye};
+use crate::model::ModelEye;
 use crate::sources as src;
 use parax_optics::lens_form::relative_spectacle_magnification_axial;
 use parax_optics::model_eye::{self, EyeSurface, Schematic};
@@ -28,7 +30,12 @@ fn power_of(surfaces: &[EyeSurface], n_before: f64) -> f64 {
     system_powers(&system_matrix_in(&els, n_before)).equivalent
 }
 
-pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
+pub(crate) fn compute(
+    case: &Context<'_>,
+    m: &ModelEye,
+    out: &mut Out<'_>,
+    diags: &mut Vec<Diagnostic>,
+) {
     let Some(from) = &m.from else {
         diags.push(
             Diagnostic::new(
@@ -84,7 +91,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
     let r = model_eye::evaluate(&s);
     let span = m.span;
     out.push(
-        "power",
+        keys::POWER,
         "equivalent power of the eye",
         V::Power { dioptres: r.power },
         span,
@@ -99,7 +106,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
         let cornea = power_of(&s[..2], 1.0);
         let lens = power_of(&s[2..], s[1].index_after);
         out.push(
-            "cornea-power",
+            keys::CORNEA_POWER,
             "power of the cornea (surfaces 1-2)",
             V::Power { dioptres: cornea },
             span,
@@ -110,7 +117,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
             || format!("{base}: {}", n4(cornea)),
         );
         out.push(
-            "lens-power",
+            keys::LENS_POWER,
             "power of the crystalline lens (surfaces 3 on, in aqueous)",
             V::Power { dioptres: lens },
             span,
@@ -124,20 +131,20 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
     let inner: f64 = s[..s.len() - 1].iter().map(|x| x.distance_m).sum();
     if let Some(c) = r.cardinal {
         for (name, label, v) in [
-            ("front-focal", "first focal point", c.front_focal),
+            (keys::FRONT_FOCAL, "first focal point", c.front_focal),
             (
-                "front-principal",
+                keys::FRONT_PRINCIPAL,
                 "first principal point",
                 c.front_principal,
             ),
             (
-                "back-principal",
+                keys::BACK_PRINCIPAL,
                 "second principal point",
                 inner + c.back_principal,
             ),
-            ("front-nodal", "first nodal point", c.front_nodal),
-            ("back-nodal", "second nodal point", inner + c.back_nodal),
-            ("back-focal", "second focal point", inner + c.back_focal),
+            (keys::FRONT_NODAL, "first nodal point", c.front_nodal),
+            (keys::BACK_NODAL, "second nodal point", inner + c.back_nodal),
+            (keys::BACK_FOCAL, "second focal point", inner + c.back_focal),
         ] {
             out.push(
                 name,
@@ -158,7 +165,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
         let stop = model_eye::IRIS_AT_LENS_FRONT;
         if let Some((at, mag)) = model_eye::entrance_pupil(&s, stop) {
             out.push(
-                "entrance-pupil",
+                keys::ENTRANCE_PUPIL,
                 "entrance pupil (image of the iris by the cornea)",
                 V::Distance {
                     metres: at,
@@ -169,7 +176,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
                 || format!("{base}: {} mm behind the cornea", n4(at * 1000.0)),
             );
             out.push(
-                "entrance-pupil-magnification",
+                keys::ENTRANCE_PUPIL_MAGNIFICATION,
                 "entrance pupil magnification (pupil seen / iris aperture)",
                 V::Number { value: mag },
                 span,
@@ -183,7 +190,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
     }
     let al = model_eye::axial_length(&s);
     out.push(
-        "axial-length",
+        keys::AXIAL_LENGTH,
         "axial length (cornea to retina)",
         V::Length { metres: al },
         m.axial_length.as_ref().map_or(span, |a| a.span),
@@ -194,7 +201,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
         || format!("{} mm", n4(al * 1000.0)),
     );
     out.push(
-        "ocular-refraction",
+        keys::OCULAR_REFRACTION,
         "refraction at the cornea implied by the axial length",
         V::Power {
             dioptres: r.ocular_refraction,
@@ -207,13 +214,13 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
         || format!("{base}: K = {}", n4(r.ocular_refraction)),
     )
     .caution = Some(src::CAUTION_MODEL);
-    let (vertex, whence) = match first_frame(case).and_then(|f| f.vertex.as_ref()) {
+    let (vertex, whence) = match case.first_frame().and_then(|f| f.vertex.as_ref()) {
         Some(v) => (v.value, "the frame's vertex distance"),
         None => (DEFAULT_VERTEX, "12 mm (no frame vertex recorded)"),
     };
     let fs = model_eye::spectacle_refraction(r.ocular_refraction, vertex);
     out.push(
-        "spectacle-refraction",
+        keys::SPECTACLE_REFRACTION,
         "spectacle refraction implied by the axial length",
         V::Power { dioptres: fs },
         span,
@@ -238,7 +245,7 @@ pub(super) fn compute(case: &Case, m: &ModelEye, out: &mut Out<'_>, diags: &mut 
         let d = vertex + c.front_principal;
         let rsm = relative_spectacle_magnification_axial(r.power, fs, d);
         out.push(
-            "relative-spectacle-magnification",
+            keys::RELATIVE_SPECTACLE_MAGNIFICATION,
             "relative spectacle magnification of the spectacle correction (axial ametropia)",
             V::Number { value: rsm },
             span,
