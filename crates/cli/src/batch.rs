@@ -9,7 +9,7 @@
 use crate::files;
 use indicatif::{ProgressBar, ProgressStyle};
 use parax_eval::blocks::{eye, system};
-use parax_eval::{evaluate_source_with, Derived, DerivedValue, EvalOptions, Severity};
+use parax_eval::{evaluate_with, Derived, DerivedValue, EvalOptions, Severity};
 use rayon::prelude::*;
 use serde::Serialize;
 use std::io::{IsTerminal, Write};
@@ -130,7 +130,8 @@ pub fn rows_of(path: &Path) -> Vec<Row> {
         Ok(s) => s,
         Err(e) => return vec![error_row(e)],
     };
-    let (parsed, ev) = evaluate_source_with(&source, EvalOptions::VALUES_ONLY);
+    let parsed = parax_syntax::parse(&source);
+    let ev = evaluate_with(&parsed, EvalOptions::VALUES_ONLY);
     let errors: Vec<_> = ev
         .diagnostics
         .iter()

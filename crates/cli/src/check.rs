@@ -2,7 +2,7 @@
 
 use crate::render::{human, json, sarif};
 use crate::{files, Format};
-use parax_eval::{evaluate_source_streaming, EvalOptions, Severity};
+use parax_eval::{evaluate_streaming, EvalOptions, Severity};
 use rayon::prelude::*;
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -27,7 +27,7 @@ fn check_one(
     // Only diagnostics are shown: each block's lines are dropped once it is read
     // into the case model, and its values once its `expect` lines are judged, so
     // memory holds the case model and one block's tree and values at a time.
-    let (parsed, ev) = evaluate_source_streaming(&source, EvalOptions::VALUES_ONLY, &mut |_| {});
+    let (parsed, ev) = evaluate_streaming(&source, EvalOptions::VALUES_ONLY, &mut |_| {});
     let mut counts = [0; 3];
     for d in &ev.diagnostics {
         counts[match d.severity {

@@ -6,9 +6,7 @@
 
 use crate::files;
 use crate::render::human;
-use parax_eval::{
-    evaluate_source_with, Derived, DerivedValue, EvalOptions, Evaluation, GENERAL_CAUTION,
-};
+use parax_eval::{evaluate_with, Derived, DerivedValue, EvalOptions, Evaluation, GENERAL_CAUTION};
 use parax_syntax::Parsed;
 use serde_json::{json, Value};
 use std::collections::BTreeMap;
@@ -53,7 +51,8 @@ fn load(arg: &str) -> Result<Version, String> {
     } else {
         return Err(format!("{arg}: no such file"));
     };
-    let (parsed, ev) = evaluate_source_with(&source, EvalOptions::VALUES_ONLY);
+    let parsed = parax_syntax::parse(&source);
+    let ev = evaluate_with(&parsed, EvalOptions::VALUES_ONLY);
     Ok(Version {
         name: arg.to_owned(),
         parsed,
@@ -324,7 +323,8 @@ pub fn view(path: &Path) -> u8 {
         let _ = out.write_all(&bytes);
         return 0;
     };
-    let (parsed, ev) = evaluate_source_with(&source, EvalOptions::VALUES_ONLY);
+    let parsed = parax_syntax::parse(&source);
+    let ev = evaluate_with(&parsed, EvalOptions::VALUES_ONLY);
     let _ = out.write_all(source.as_bytes());
     if !parsed.errors.is_empty() {
         return 0;

@@ -12,7 +12,7 @@ use parax_diagram::{
 };
 use parax_eval::blocks::eye::keys;
 use parax_eval::model::{ObjectAt, System, SystemElement};
-use parax_eval::{evaluate_source_with, slug, DerivedValue, EvalOptions};
+use parax_eval::{evaluate_with, slug, DerivedValue, EvalOptions};
 use parax_optics::system::{ray_heights, trace, Element, ImagePlace, Object};
 use std::path::Path;
 
@@ -154,7 +154,7 @@ pub fn run(path: &Path, out: &Path) -> u8 {
             return 2;
         }
     };
-    let (_, ev) = evaluate_source_with(&source, EvalOptions::VALUES_ONLY);
+    let ev = evaluate_with(&parax_syntax::parse(&source), EvalOptions::VALUES_ONLY);
     let stem = path
         .file_stem()
         .map_or("stdin".into(), |s| s.to_string_lossy().into_owned());

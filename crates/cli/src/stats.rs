@@ -8,7 +8,7 @@ use crate::files;
 use crate::render::human;
 use parax_eval::blocks::eye::keys;
 use parax_eval::model::Side;
-use parax_eval::{evaluate_source_each, DerivedValue, EvalOptions, Severity, GENERAL_CAUTION};
+use parax_eval::{evaluate_streaming, DerivedValue, EvalOptions, Severity, GENERAL_CAUTION};
 use parax_optics::cohort::{summarize, CohortSummary};
 use parax_optics::PowerVector;
 use serde_json::json;
@@ -52,7 +52,7 @@ fn samples_of(path: &Path, group_by: GroupBy) -> Result<Vec<Sample>, String> {
     // Only the three power-vector components of the eye blocks are read: keep
     // those as the values are handed over, drop the rest.
     let mut kept = Vec::new();
-    let (parsed, ev) = evaluate_source_each(&source, EvalOptions::VALUES_ONLY, &mut |values| {
+    let (parsed, ev) = evaluate_streaming(&source, EvalOptions::VALUES_ONLY, &mut |values| {
         kept.extend(
             values
                 .iter()

@@ -111,26 +111,18 @@ fn table(text: &str, label: &str) {
     );
     let derived = both.1.derived.len();
     drop(both);
-    let (peak, held, both) =
-        measure(|| parax_eval::evaluate_source_with(text, parax_eval::EvalOptions::VALUES_ONLY));
+    let (peak, held, both) = measure(|| {
+        let parsed = parax_syntax::parse(text);
+        let ev = parax_eval::evaluate_with(&parsed, parax_eval::EvalOptions::VALUES_ONLY);
+        (parsed, ev)
+    });
     row("  the same, values only", peak, held);
     drop(both);
     let mut count = 0;
     let (peak, held, both) = measure(|| {
-        parax_eval::evaluate_source_each(text, parax_eval::EvalOptions::VALUES_ONLY, &mut |v| {
+        parax_eval::evaluate_streaming(text, parax_eval::EvalOptions::VALUES_ONLY, &mut |v| {
             count += v.len()
         })
-    });
-    row("  values handed over block by block", peak, held);
-    assert_eq!(count, derived, "every value is handed over");
-    drop(both);
-    let mut count = 0;
-    let (peak, held, both) = measure(|| {
-        parax_eval::evaluate_source_streaming(
-            text,
-            parax_eval::EvalOptions::VALUES_ONLY,
-            &mut |v| count += v.len(),
-        )
     });
     row("  read block by block too (`parax check`)", peak, held);
     assert_eq!(count, derived, "every value is handed over");
@@ -138,7 +130,8 @@ fn table(text: &str, label: &str) {
     let (peak, held, case) =
         measure(|| serde_json::from_str::<parax_eval::Case>(&json).expect("valid JSON"));
     row("serde_json deserialize (JSON → model)", peak, held);
-    let (peak, held, out) = measure(|| parax_eval::evaluate_case(&case));
+    let (peak, held, out) =
+        measure(|| parax_eval::evaluate_case(&case, parax_eval::EvalOptions::default()));
     row("evaluate_case on that model (compute alone)", peak, held);
     assert_eq!(
         out.0.len(),
@@ -149,7 +142,10 @@ fn table(text: &str, label: &str) {
     drop(case);
     let (peak, held, out) = measure(|| {
         let case = serde_json::from_str::<parax_eval::Case>(&json).expect("valid JSON");
-        drop(parax_eval::evaluate_case(&case));
+        drop(parax_eval::evaluate_case(
+            &case,
+            parax_eval::EvalOptions::default(),
+        ));
         case
     });
     row("serde_json deserialize + evaluate_case", peak, held);

@@ -22,7 +22,7 @@
 mod corpus;
 
 use criterion::{Criterion, SamplingMode, Throughput};
-use parax_eval::{evaluate, evaluate_case, evaluate_source, Case};
+use parax_eval::{evaluate, evaluate_case, evaluate_source, Case, EvalOptions};
 use std::cell::RefCell;
 use std::collections::HashMap;
 use std::hint::black_box;
@@ -45,7 +45,7 @@ fn json_of(text: &str) -> String {
     // (Not `back == ev.case`: serde_json's default float parser may differ from
     // Rust's in the last bit, e.g. 0.0075842696629213465.)
     let back: Case = serde_json::from_str(&json).expect("the JSON reads back");
-    let (derived, _) = evaluate_case(&back);
+    let (derived, _) = evaluate_case(&back, EvalOptions::default());
     let shown =
         |d: &[parax_eval::Derived]| d.iter().map(|d| (d.key(), d.text())).collect::<Vec<_>>();
     assert_eq!(
@@ -150,7 +150,7 @@ impl Set {
     fn json_deserialize_evaluate(&self) {
         for j in &self.jsons {
             let case = serde_json::from_str::<Case>(black_box(j)).expect("valid JSON");
-            black_box(evaluate_case(&case));
+            black_box(evaluate_case(&case, EvalOptions::default()));
             black_box(case);
         }
     }
@@ -240,7 +240,11 @@ fn bench_set(
                     COMPUTE,
                     n,
                     || models(set),
-                    |cases| cases.iter().for_each(|c| drop(black_box(evaluate_case(c)))),
+                    |cases| {
+                        cases
+                            .iter()
+                            .for_each(|c| drop(black_box(evaluate_case(c, EvalOptions::default()))))
+                    },
                 )
             })
         });
@@ -444,7 +448,9 @@ fn time_once(set: &Set, samples: &mut HashMap<&'static str, Vec<Duration>>) {
     drop(trees);
     let cases = models(set);
     once(COMPUTE, &mut || {
-        cases.iter().for_each(|c| drop(black_box(evaluate_case(c))))
+        cases
+            .iter()
+            .for_each(|c| drop(black_box(evaluate_case(c, EvalOptions::default()))))
     });
     drop(cases);
     once(DE_FULL, &mut || set.json_deserialize_evaluate());

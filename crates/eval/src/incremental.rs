@@ -25,7 +25,7 @@
 //! [`crate::blocks::compute`], [`crate::expect::check`]); this module only
 //! decides which results to keep. Texts are compared in full (no hashes), so a
 //! reused result is the one a full evaluation would compute; a property test
-//! checks that [`evaluate_incremental`] equals [`crate::evaluate`]. A result
+//! checks that [`reevaluate`] equals [`crate::evaluate_with`]. A result
 //! that points outside its own block is never reused. What is left
 //! proportional to the file is plain bookkeeping: comparing block texts
 //! (memory comparisons), moving the spans after the edit, and looking up what
@@ -200,53 +200,39 @@ fn move_eye(e: &mut Eye, by: isize) {
     }
 }
 
-/// Evaluate `parsed`, reusing what `previous` (the evaluation of an earlier
-/// version of the same document, made by this function) read and computed for
-/// the blocks that did not change. Gives exactly what [`crate::evaluate`] gives.
-pub fn evaluate_incremental(parsed: &Parsed, previous: Option<Evaluation>) -> Evaluation {
-    evaluate_with(parsed, previous, None, EvalOptions::default())
+/// An edit of a text: the bytes `replaced` of the previous text were replaced
+/// by `inserted` bytes.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct TextEdit {
+    /// The byte range of the previous text that was replaced.
+    pub replaced: Range<usize>,
+    /// How many bytes took its place.
+    pub inserted: usize,
 }
 
-/// [`evaluate_incremental`] with `options`. A `previous` evaluation made with
-/// other options is not reused. With [`EvalOptions::VALUES_ONLY`] (what the
-/// language server runs on every edit) no substituted formula is written;
+/// Evaluate `parsed` with `options`, reusing what `previous` (the evaluation of
+/// an earlier version of the same document, made by this function) read and
+/// computed for the blocks that did not change; with no `previous`, everything
+/// is read and computed, and the result keeps what the next call reuses. When
+/// `edit` tells what changed, blocks wholly before or after it are recognised
+/// by where they stand and their length, without comparing their text;
+/// otherwise block texts are compared. A `previous` evaluation made with other
+/// options is not reused. With [`EvalOptions::VALUES_ONLY`] (what the language
+/// server runs on every edit) no substituted formula is written;
 /// [`Evaluation::explained`] writes those of the values asked for. Gives
 /// exactly what [`crate::evaluate_with`] gives with the same options.
-pub fn evaluate_incremental_with(
+pub fn reevaluate(
     parsed: &Parsed,
     previous: Option<Evaluation>,
+    edit: Option<TextEdit>,
     options: EvalOptions,
-) -> Evaluation {
-    evaluate_with(parsed, previous, None, options)
-}
-
-/// [`evaluate_incremental`] when the edit is known: the bytes `edit` of the
-/// previous text were replaced by `inserted` bytes. Blocks wholly before or
-/// after the edit are then recognised by where they stand and their length,
-/// without comparing their text. Gives exactly what [`crate::evaluate`] gives.
-pub fn evaluate_edit(
-    parsed: &Parsed,
-    previous: Option<Evaluation>,
-    edit: Range<usize>,
-    inserted: usize,
 ) -> Evaluation {
     evaluate_with(
         parsed,
         previous,
-        Some((edit, inserted)),
-        EvalOptions::default(),
+        edit.map(|e| (e.replaced, e.inserted)),
+        options,
     )
-}
-
-/// [`evaluate_edit`] with `options` (see [`evaluate_incremental_with`]).
-pub fn evaluate_edit_with(
-    parsed: &Parsed,
-    previous: Option<Evaluation>,
-    edit: Range<usize>,
-    inserted: usize,
-    options: EvalOptions,
-) -> Evaluation {
-    evaluate_with(parsed, previous, Some((edit, inserted)), options)
 }
 
 /// An eye's side, date and whether it has a refraction.
@@ -833,7 +819,7 @@ pub(crate) fn explained(e: &Evaluation, indices: &[usize]) -> Vec<Derived> {
     if !e.memo.kept {
         // A full evaluation without derivations keeps no per-block inputs:
         // everything is computed again (not a path the language server takes).
-        let (all, _) = crate::evaluate_case_with(&e.case, EvalOptions::default());
+        let (all, _) = crate::evaluate_case(&e.case, EvalOptions::default());
         return indices.iter().map(|&i| all[i].clone()).collect();
     }
     let m = &e.memo;

@@ -21,9 +21,7 @@ pub mod units;
 pub use compute::slug;
 pub use derived::{Derived, DerivedValue, Difference, Phrase};
 pub use diagnostic::{Diagnostic, Edit, Fix, Severity, GENERAL_CAUTION};
-pub use incremental::{
-    evaluate_edit, evaluate_edit_with, evaluate_incremental, evaluate_incremental_with,
-};
+pub use incremental::{reevaluate, TextEdit};
 
 pub use model::Case;
 
@@ -38,7 +36,7 @@ pub struct Evaluation {
     pub derived: Vec<Derived>,
     /// Every diagnostic (syntax, notation, units, clinical, expect), by position.
     pub diagnostics: Vec<Diagnostic>,
-    /// Per-block results kept for [`evaluate_incremental`] (empty from [`evaluate`]).
+    /// Per-block results kept for [`reevaluate`] (empty from [`evaluate`]).
     memo: incremental::Memo,
 }
 
@@ -52,7 +50,7 @@ impl Evaluation {
 
     /// Indices in [`Evaluation::derived`] of the values whose span starts inside
     /// `span` (both ends included), ordered by (start, index). After
-    /// [`evaluate_incremental`] this looks only at the eye blocks that meet
+    /// [`reevaluate`] this looks only at the eye blocks that meet
     /// `span` and at the few values kept apart (the other blocks'), so its cost
     /// follows the size of `span`, not of the file; after [`evaluate`] it scans
     /// every value.
@@ -100,7 +98,7 @@ pub fn evaluate(parsed: &Parsed) -> Evaluation {
 pub fn evaluate_with(parsed: &Parsed, options: EvalOptions) -> Evaluation {
     let mut diagnostics: Vec<Diagnostic> = parsed.errors.iter().map(from_syntax).collect();
     let case = lower::lower(parsed, &mut diagnostics);
-    let (derived, more) = evaluate_case_with(&case, options);
+    let (derived, more) = evaluate_case(&case, options);
     diagnostics.extend(more);
     diagnostics.sort_by_key(|d| (d.span.start, d.severity));
     Evaluation {
@@ -118,21 +116,9 @@ pub fn evaluate_source(source: &str) -> (Parsed, Evaluation) {
     (parsed, evaluation)
 }
 
-/// Parse and evaluate source text with `options`.
-pub fn evaluate_source_with(source: &str, options: EvalOptions) -> (Parsed, Evaluation) {
-    let parsed = parax_syntax::parse(source);
-    let evaluation = evaluate_with(&parsed, options);
-    (parsed, evaluation)
-}
-
-/// Evaluate a case model (read from a file or from JSON): derived values, and the
-/// diagnostics of computation and `expect` lines.
-pub fn evaluate_case(case: &Case) -> (Vec<Derived>, Vec<Diagnostic>) {
-    evaluate_case_with(case, EvalOptions::default())
-}
-
-/// [`evaluate_case`] with `options`.
-pub fn evaluate_case_with(case: &Case, options: EvalOptions) -> (Vec<Derived>, Vec<Diagnostic>) {
+/// Evaluate a case model (read from a file or from JSON) with `options`:
+/// derived values, and the diagnostics of computation and `expect` lines.
+pub fn evaluate_case(case: &Case, options: EvalOptions) -> (Vec<Derived>, Vec<Diagnostic>) {
     let mut derived = Vec::new();
     let mut diags = Vec::new();
     compute::compute(case, options.derivations, &mut derived, &mut diags);
@@ -150,56 +136,25 @@ pub fn evaluate_case_with(case: &Case, options: EvalOptions) -> (Vec<Derived>, V
     (derived, diags)
 }
 
-/// Evaluate `parsed` and hand the derived values to `each`, one block at a time,
-/// instead of collecting them: each block's values are computed, its `expect`
-/// lines judged against them, then they are passed to `each` and dropped, so the
-/// evaluation holds one block's values at a time whatever the file's size.
-/// `each` keeps what it needs (a few keys, a count), or nothing (`parax check`).
+/// Read, evaluate and check source text as a stream, handing the derived
+/// values to `each` block by block instead of collecting them: each top-level
+/// block is parsed, read into the case model and its lines dropped before the
+/// next block is read ([`parax_syntax::parse_each`]), so the syntax tree of the
+/// whole file and the case model are never alive together; then each block's
+/// values are computed, its `expect` lines judged against them, and they are
+/// passed to `each` and dropped, so one block's values are held at a time
+/// whatever the file's size. `each` keeps what it needs (a few keys, a count),
+/// or nothing (`parax check`).
 ///
 /// The returned [`Evaluation`] has the case and every diagnostic, exactly as
-/// [`evaluate_with`] gives them, and an empty [`Evaluation::derived`]. The values
-/// reach `each` in the order of [`Evaluation::derived`]. When two blocks share an
-/// id (their `expect` lines then look up values across both), the values are
-/// collected first and `each` is called once with all of them.
-pub fn evaluate_each(
-    parsed: &Parsed,
-    options: EvalOptions,
-    each: &mut dyn FnMut(&[Derived]),
-) -> Evaluation {
-    let mut diagnostics: Vec<Diagnostic> = parsed.errors.iter().map(from_syntax).collect();
-    let case = lower::lower(parsed, &mut diagnostics);
-    diagnostics.extend(evaluate_case_each(&case, options, each));
-    diagnostics.sort_by_key(|d| (d.span.start, d.severity));
-    Evaluation {
-        case,
-        derived: Vec::new(),
-        diagnostics,
-        memo: Default::default(),
-    }
-}
-
-/// Parse and evaluate source text, handing the values to `each` (see
-/// [`evaluate_each`]).
-pub fn evaluate_source_each(
-    source: &str,
-    options: EvalOptions,
-    each: &mut dyn FnMut(&[Derived]),
-) -> (Parsed, Evaluation) {
-    let parsed = parax_syntax::parse(source);
-    let evaluation = evaluate_each(&parsed, options, each);
-    (parsed, evaluation)
-}
-
-/// Read, evaluate and check source text as a stream, handing the values to
-/// `each` (see [`evaluate_each`]): each top-level block is parsed, lowered into
-/// the case model and its lines dropped before the next block is read
-/// ([`parax_syntax::parse_each`]), so the syntax tree of the whole file and the
-/// case model are never alive together. The diagnostics, the case and the values
-/// are exactly those of [`evaluate_source_each`] (a test compares them on every
-/// example and fixture and after random edits). The returned [`Parsed`] has the
-/// source, the line index and the syntax errors, but no lines and no blocks: it
-/// serves to place and render diagnostics, as `parax check` does.
-pub fn evaluate_source_streaming(
+/// [`evaluate_with`] gives them, and an empty [`Evaluation::derived`]; the
+/// values reach `each` in the order of [`Evaluation::derived`] (a test compares
+/// them on every example and fixture and after random edits). When two blocks
+/// share an id (their `expect` lines then look up values across both), the
+/// values are collected first and `each` is called once with all of them. The
+/// returned [`Parsed`] has the source, the line index and the syntax errors,
+/// but no lines and no blocks: it serves to place and render diagnostics.
+pub fn evaluate_streaming(
     source: &str,
     options: EvalOptions,
     each: &mut dyn FnMut(&[Derived]),
@@ -248,9 +203,9 @@ pub struct StreamedSource {
 
 impl StreamedSource {
     /// Compute every value and hand them to `each` block by block, as
-    /// [`evaluate_case_each`] does; returns every diagnostic of the file (reading,
+    /// [`evaluate_streaming`] does; returns every diagnostic of the file (reading,
     /// computation, `expect` lines) in the order of [`Evaluation::diagnostics`].
-    /// The values and diagnostics are those of [`evaluate_source_streaming`].
+    /// The values and diagnostics are those of [`evaluate_streaming`].
     pub fn evaluate_each(
         &self,
         options: EvalOptions,
@@ -274,7 +229,7 @@ impl StreamedSource {
 }
 
 /// Read source text into the case model block by block, dropping each block's
-/// lines once it is read (as [`evaluate_source_streaming`] does), and compute
+/// lines once it is read (as [`evaluate_streaming`] does), and compute
 /// nothing yet: see [`StreamedSource`].
 pub fn read_source_streaming(source: &str) -> StreamedSource {
     read_streaming(source, true)
@@ -306,10 +261,10 @@ fn read_streaming(source: &str, places: bool) -> StreamedSource {
     }
 }
 
-/// [`evaluate_case_with`] handing the values to `each` block by block instead of
-/// returning them (see [`evaluate_each`]); returns the diagnostics, in the order
-/// [`evaluate_case_with`] gives them.
-pub fn evaluate_case_each(
+/// [`evaluate_case`] handing the values to `each` block by block instead of
+/// returning them (see [`evaluate_streaming`]); returns the diagnostics, in the
+/// order [`evaluate_case`] gives them.
+fn evaluate_case_each(
     case: &Case,
     options: EvalOptions,
     each: &mut dyn FnMut(&[Derived]),
@@ -317,7 +272,7 @@ pub fn evaluate_case_each(
     let ids: Vec<String> = case.blocks.iter().map(model::Block::id).collect();
     let mut seen = std::collections::HashSet::with_capacity(ids.len());
     if !ids.iter().all(|id| seen.insert(id.as_str())) {
-        let (derived, diags) = evaluate_case_with(case, options);
+        let (derived, diags) = evaluate_case(case, options);
         each(&derived);
         return diags;
     }

@@ -1,4 +1,4 @@
-//! `evaluate_incremental` and `evaluate_edit` (reusing the previous evaluation
+//! `reevaluate`, without and with the edit told (reusing the previous evaluation
 //! for the blocks whose inputs did not change) must give exactly what
 //! `evaluate` gives: the same case model, derived values (key, text, span) and
 //! diagnostics, after random edits of the example and fixture files and of a
@@ -8,10 +8,7 @@
 //! and diagnostics, and `Evaluation::explained` writes for any value exactly the
 //! derivation `evaluate` writes.
 
-use parax_eval::{
-    evaluate, evaluate_edit, evaluate_edit_with, evaluate_incremental, evaluate_with, EvalOptions,
-    Evaluation,
-};
+use parax_eval::{evaluate, evaluate_with, reevaluate, EvalOptions, Evaluation, TextEdit};
 use parax_syntax::Span;
 use parax_syntax::{parse, reparse};
 use proptest::prelude::*;
@@ -95,20 +92,21 @@ proptest! {
         let files = files();
         let mut text = files[file.index(files.len())].clone();
         let mut parsed = parse(&text);
-        let mut eval = evaluate_incremental(&parsed, None);
+        let mut eval = reevaluate(&parsed, None, None, EvalOptions::default());
         // The same edits told to the evaluator (blocks found by position).
         let mut told = eval.clone();
         // Values only, derivations written on demand.
-        let mut quiet = parax_eval::evaluate_incremental_with(&parsed, None, EvalOptions::VALUES_ONLY);
+        let mut quiet = reevaluate(&parsed, None, None, EvalOptions::VALUES_ONLY);
         for (at, len, pieces) in edits {
             let std::ops::Range { start, end } =
                 parax_testdata::edit_range(&text, at.index(text.len() + 1), len);
             let insert: String = pieces.iter().map(|&i| PIECES[i]).collect();
             parsed = reparse(&parsed, start..end, &insert);
             text.replace_range(start..end, &insert);
-            eval = evaluate_incremental(&parsed, Some(eval));
-            told = evaluate_edit(&parsed, Some(told), start..end, insert.len());
-            quiet = evaluate_edit_with(&parsed, Some(quiet), start..end, insert.len(), EvalOptions::VALUES_ONLY);
+            eval = reevaluate(&parsed, Some(eval), None, EvalOptions::default());
+            let edit = TextEdit { replaced: start..end, inserted: insert.len() };
+            told = reevaluate(&parsed, Some(told), Some(edit.clone()), EvalOptions::default());
+            quiet = reevaluate(&parsed, Some(quiet), Some(edit), EvalOptions::VALUES_ONLY);
             let full = evaluate(&parse(&text));
             prop_assert!(quiet.derived.iter().all(|d| d.derivation.substituted.is_empty()));
             // Asked for in two halves (a block may be computed once per call).
@@ -142,11 +140,11 @@ proptest! {
 fn an_edit_in_one_visit_reuses_the_others_and_moves_their_spans() {
     let text = visits();
     let parsed = parse(&text);
-    let first = evaluate_incremental(&parsed, None);
+    let first = reevaluate(&parsed, None, None, EvalOptions::default());
     // Insert a blank line before the first eye block: every eye block moves.
     let at = text.find("\neye").expect("an eye block");
     let parsed = reparse(&parsed, at..at, "\n");
-    let again = evaluate_incremental(&parsed, Some(first.clone()));
+    let again = reevaluate(&parsed, Some(first.clone()), None, EvalOptions::default());
     let full = evaluate(&parsed);
     assert_eq!(summary(&again), summary(&full));
     assert_eq!(again.diagnostics, full.diagnostics);

@@ -34,15 +34,14 @@ impl Analysis {
     /// every edit was most of an edit's evaluation time).
     pub fn new(source: &str) -> Self {
         let parsed = parax_syntax::parse(source);
-        let evaluation =
-            parax_eval::evaluate_incremental_with(&parsed, None, EvalOptions::VALUES_ONLY);
+        let evaluation = parax_eval::reevaluate(&parsed, None, None, EvalOptions::VALUES_ONLY);
         Self::from_parts(parsed, evaluation)
     }
 
     /// The analysis of `source`, a later version of the same document: only the
     /// lines that differ are parsed again (`parax_syntax::reparse`) and only the
     /// blocks the edit touched are read and computed again
-    /// (`parax_eval::evaluate_edit`); the result equals [`Analysis::new`].
+    /// (`parax_eval::reevaluate`, told the edit); the result equals [`Analysis::new`].
     pub fn update(self, source: &str) -> Self {
         let Analysis {
             parsed, evaluation, ..
@@ -50,11 +49,14 @@ impl Analysis {
         let (range, insert) = changed(&parsed.source, source);
         let inserted = insert.len();
         let parsed = parsed.edit(range.clone(), insert);
-        let evaluation = parax_eval::evaluate_edit_with(
+        let edit = parax_eval::TextEdit {
+            replaced: range,
+            inserted,
+        };
+        let evaluation = parax_eval::reevaluate(
             &parsed,
             Some(evaluation),
-            range,
-            inserted,
+            Some(edit),
             EvalOptions::VALUES_ONLY,
         );
         Self::from_parts(parsed, evaluation)
