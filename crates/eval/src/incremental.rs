@@ -35,7 +35,7 @@ use crate::blocks::{self, Context};
 use crate::compute::Visits;
 use crate::derived::Derived;
 use crate::diagnostic::Diagnostic;
-use crate::model::{At, Block, Case, Expect, ExpectToken, Eye};
+use crate::model::{Block, Case};
 use crate::{expect, from_syntax, lower, EvalOptions, Evaluation};
 use parax_syntax::{BlockKind, Parsed, Span};
 use std::collections::HashMap;
@@ -134,70 +134,6 @@ fn diag_inside(d: &Diagnostic, block: Span) -> bool {
             .iter()
             .flat_map(|f| &f.edits)
             .all(|x| inside(x.span, block))
-}
-
-fn move_at<T>(a: &mut Option<At<T>>, by: isize) {
-    if let Some(a) = a {
-        a.span = a.span.moved(by);
-    }
-}
-
-fn move_expect(x: &mut Expect, by: isize) {
-    x.name_span = x.name_span.moved(by);
-    x.span = x.span.moved(by);
-    x.value_span = x.value_span.map(|s| s.moved(by));
-    for t in &mut x.tokens {
-        if let ExpectToken::Number { span, .. } = t {
-            *span = span.moved(by);
-        }
-    }
-}
-
-/// Move every span of a lowered eye by `by` bytes. Written as one destructuring
-/// so that a field added to [`Eye`] fails to compile here until it is moved too.
-fn move_eye(e: &mut Eye, by: isize) {
-    let Eye {
-        side: _,
-        date: _,
-        span,
-        refraction,
-        add,
-        keratometry,
-        keratometric_index,
-        posterior_radius,
-        corneal_thickness,
-        axial_length,
-        pd,
-        age,
-        iol_constant,
-        iol_target,
-        iol_elp,
-        iol_power,
-        refractive_surgery,
-        expects,
-    } = e;
-    *span = span.moved(by);
-    move_at(refraction, by);
-    move_at(add, by);
-    move_at(keratometry, by);
-    for a in [
-        keratometric_index,
-        posterior_radius,
-        corneal_thickness,
-        axial_length,
-        pd,
-        age,
-        iol_constant,
-        iol_target,
-        iol_elp,
-        iol_power,
-    ] {
-        move_at(a, by);
-    }
-    move_at(refractive_surgery, by);
-    for x in expects {
-        move_expect(x, by);
-    }
 }
 
 /// An edit of a text: the bytes `replaced` of the previous text were replaced
@@ -437,7 +373,7 @@ fn evaluate_with(
                 diagnostics.extend(memo.diags.iter().cloned());
                 if k >= new_mid.end && delta != 0 {
                     if let Some(Block::Eye(e)) = memo.model.map(|m| &mut case.blocks[m]) {
-                        move_eye(e, delta);
+                        e.move_spans(delta);
                     }
                 }
             }

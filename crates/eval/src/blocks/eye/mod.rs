@@ -16,7 +16,7 @@ use super::{expect, one, Context, Expects, Keyword};
 use crate::compute::Out;
 use crate::diagnostic::Diagnostic;
 use crate::lower::{at, read_keratometry, side};
-use crate::model::{At, Expect, Rx, Side};
+use crate::model::{At, Expect, ExpectToken, Rx, Side};
 use crate::read::Reader;
 use crate::units as u;
 use parax_syntax::{Span, Symbol};
@@ -114,6 +114,74 @@ impl Eye {
             iol_power: None,
             refractive_surgery: None,
             expects: Vec::new(),
+        }
+    }
+}
+
+fn move_at<T>(a: &mut Option<At<T>>, by: isize) {
+    if let Some(a) = a {
+        a.span = a.span.moved(by);
+    }
+}
+
+fn move_expect(x: &mut Expect, by: isize) {
+    x.name_span = x.name_span.moved(by);
+    x.span = x.span.moved(by);
+    x.value_span = x.value_span.map(|s| s.moved(by));
+    for t in &mut x.tokens {
+        if let ExpectToken::Number { span, .. } = t {
+            *span = span.moved(by);
+        }
+    }
+}
+
+impl Eye {
+    /// Move every span of the eye by `by` bytes (the incremental evaluation
+    /// reuses an unchanged block after an edit before it). Written as one
+    /// destructuring so that a field added to [`Eye`] fails to compile here
+    /// until it is moved too.
+    pub(crate) fn move_spans(&mut self, by: isize) {
+        let Eye {
+            side: _,
+            date: _,
+            span,
+            refraction,
+            add,
+            keratometry,
+            keratometric_index,
+            posterior_radius,
+            corneal_thickness,
+            axial_length,
+            pd,
+            age,
+            iol_constant,
+            iol_target,
+            iol_elp,
+            iol_power,
+            refractive_surgery,
+            expects,
+        } = self;
+        *span = span.moved(by);
+        move_at(refraction, by);
+        move_at(add, by);
+        move_at(keratometry, by);
+        for a in [
+            keratometric_index,
+            posterior_radius,
+            corneal_thickness,
+            axial_length,
+            pd,
+            age,
+            iol_constant,
+            iol_target,
+            iol_elp,
+            iol_power,
+        ] {
+            move_at(a, by);
+        }
+        move_at(refractive_surgery, by);
+        for x in expects {
+            move_expect(x, by);
         }
     }
 }
