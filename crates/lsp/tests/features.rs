@@ -116,10 +116,12 @@ async fn run_fixture(path: &Path) -> Value {
                 let params = json!({"textDocument": doc, "position": pos(w[1], w[2])});
                 let r = within(line, c.request("textDocument/completion", params)).await;
                 // Labels and replaced ranges are what matter; details are in the first item.
-                json!(r.as_array().map(|items| keyword_table(items
-                    .iter()
-                    .map(|i| json!([i["label"], i["kind"], i["textEdit"]["range"]]))
-                    .collect::<Vec<_>>())))
+                json!(r.as_array().map(|items| keyword_table(
+                    items
+                        .iter()
+                        .map(|i| json!([i["label"], i["kind"], i["textEdit"]["range"]]))
+                        .collect::<Vec<_>>()
+                )))
             }
             "actions" => {
                 let params = json!({"textDocument": doc, "range": {"start": pos(w[1], w[2]), "end": pos(w[3], w[4])}, "context": {"diagnostics": []}});
@@ -242,11 +244,18 @@ fn keyword_table(items: Vec<Value>) -> Vec<Value> {
         "every keyword replaces the same range"
     );
     let table = json!([
-        format!("(the keywords of `{}` blocks, as the schema lists them)", kind.keyword()),
+        format!(
+            "(the keywords of `{}` blocks, as the schema lists them)",
+            kind.keyword()
+        ),
         14,
         keywords[0][2]
     ]);
-    let mut out: Vec<Value> = items.iter().filter(|i| i[1] != json!(14)).cloned().collect();
+    let mut out: Vec<Value> = items
+        .iter()
+        .filter(|i| i[1] != json!(14))
+        .cloned()
+        .collect();
     out.insert(0, table);
     out
 }
