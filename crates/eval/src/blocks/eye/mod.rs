@@ -4,6 +4,7 @@
 //! `axial` (relative spectacle magnification), `near` (accommodation), `iol`
 //! (implant power) and `visits` (the other eye, the previous visit).
 
+mod acuity;
 mod axial;
 mod iol;
 mod near;
@@ -88,6 +89,9 @@ pub struct Eye {
     pub iol_power: Option<At<f64>>,
     /// Refractive-surgery history, as recorded.
     pub refractive_surgery: Option<At<String>>,
+    /// Visual acuity as a Snellen fraction (test distance, letter size).
+    #[serde(default)]
+    pub acuity: Option<At<(f64, f64)>>,
     /// `expect` lines.
     pub expects: Vec<Expect>,
 }
@@ -113,6 +117,7 @@ impl Eye {
             iol_elp: None,
             iol_power: None,
             refractive_surgery: None,
+            acuity: None,
             expects: Vec::new(),
         }
     }
@@ -159,6 +164,7 @@ impl Eye {
             iol_elp,
             iol_power,
             refractive_surgery,
+            acuity,
             expects,
         } = self;
         *span = span.moved(by);
@@ -180,6 +186,7 @@ impl Eye {
             move_at(a, by);
         }
         move_at(refractive_surgery, by);
+        move_at(acuity, by);
         for x in expects {
             move_expect(x, by);
         }
@@ -283,6 +290,8 @@ pub mod keys {
         IOL_PREDICTED_REFRACTION = "iol-predicted-refraction",
         /// Relative spectacle magnification (axial length).
         RELATIVE_SPECTACLE_MAGNIFICATION = "relative-spectacle-magnification",
+        /// Visual acuity in logMAR.
+        ACUITY_LOGMAR = "acuity-logmar",
     }
 }
 
@@ -416,6 +425,25 @@ pub(crate) static KEYWORDS: &[Keyword<Eye>] = &[
             })
         },
     ),
+    one(
+        "acuity",
+        "DISTANCE/SIZE",
+        "visual acuity as a Snellen fraction (6/12, 20/40)",
+        |r, e, span, form| {
+            let d = r.quantity(&acuity::TEST_DISTANCE, form);
+            let size = if r.symbol_if(Symbol::Slash) {
+                r.quantity(&acuity::LETTER_SIZE, form)
+            } else {
+                r.missing("`/` and the letter size (`6/12`)", form)
+            };
+            if let (Some(d), Some(size)) = (d, size) {
+                e.acuity = Some(At {
+                    value: (d, size),
+                    span,
+                });
+            }
+        },
+    ),
     super::note(),
     expect(),
 ];
@@ -435,4 +463,5 @@ pub(crate) fn compute(
     near::compute(cx, e, out);
     iol::compute(e, out, diags);
     visits::compute(cx, visits, e, out, diags);
+    acuity::compute(e, out);
 }
