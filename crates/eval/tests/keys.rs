@@ -127,3 +127,11 @@ fn no_value_name_is_written_outside_its_block_module() {
         "use the block's keys constants instead: {found:?}"
     );
 }
+
+/// A block of the model takes no more room than an eye block, the kind a long
+/// history holds by the thousand: no other kind may grow past it unboxed.
+#[test]
+fn a_block_is_as_large_as_an_eye() {
+    use parax_eval::model::{Block, Eye};
+    assert_eq!(std::mem::size_of::<Block>(), std::mem::size_of::<Eye>());
+}
