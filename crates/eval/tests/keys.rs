@@ -1,7 +1,8 @@
 //! Every derived value is named by its block module's key table
 //! (`parax_eval::blocks::<kind>::keys`), every key of those tables is documented
 //! in docs/notation.md under its block, and no crate writes a multi-word value
-//! name as a string literal outside the block modules.
+//! name as a string literal outside the block modules; and a block of the
+//! model is no larger than an eye block.
 
 use parax_eval::blocks::{self, system};
 use parax_syntax::BlockKind;
