@@ -21,9 +21,9 @@
 //!   before, and the other blocks' text is unchanged. Every other block is
 //!   computed again every time (its values depend on the eyes).
 //!
-//! Every mode runs the same per-block steps ([`crate::lower::read_block`],
-//! [`crate::blocks::compute`], [`crate::expect::check`]); this module only
-//! decides which results to keep. Texts are compared in full (no hashes), so a
+//! Every mode runs the same per-block steps (`lower::read_block`, then
+//! `compute::block_step`: compute the block, judge its `expect` lines); this
+//! module only decides which results to keep. Texts are compared in full (no hashes), so a
 //! reused result is the one a full evaluation would compute; a property test
 //! checks that [`reevaluate`] equals [`crate::evaluate_with`]. A result
 //! that points outside its own block is never reused. What is left
@@ -31,8 +31,8 @@
 //! (memory comparisons), moving the spans after the edit, and looking up what
 //! the blocks depend on.
 
-use crate::blocks::{self, Context};
-use crate::compute::Visits;
+use crate::blocks::Context;
+use crate::compute::{self, Visits};
 use crate::derived::Derived;
 use crate::diagnostic::Diagnostic;
 use crate::model::{Block, Case};
@@ -513,14 +513,8 @@ fn compute_into(
 ) -> (Vec<Diagnostic>, Vec<Diagnostic>, bool) {
     let start = out.len();
     let mut diags = Vec::new();
-    let id = blocks::compute(cx, visits, i, explain, out, &mut diags);
     let mut expects = Vec::new();
-    expect::check(
-        &id,
-        cx.case.blocks[i].expects(),
-        &out[start..],
-        &mut expects,
-    );
+    compute::block_step(cx, visits, i, explain, out, &mut diags, Some(&mut expects));
     let reusable = out[start..].iter().all(|d| inside(d.span, span))
         && diags.iter().chain(&expects).all(|d| diag_inside(d, span));
     (diags, expects, reusable)
@@ -769,7 +763,7 @@ pub(crate) fn explained(e: &Evaluation, indices: &[usize]) -> Vec<Derived> {
             let visits = local_visits(&e.case, k, vm.partner, vm.previous);
             let mut values = Vec::new();
             let mut diags = Vec::new();
-            blocks::compute(&cx, &visits, k, true, &mut values, &mut diags);
+            compute::block_step(&cx, &visits, k, true, &mut values, &mut diags, None);
             values
         });
         out.push(values[i - vm.derived.start].clone());

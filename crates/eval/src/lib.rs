@@ -121,19 +121,41 @@ pub fn evaluate_source(source: &str) -> (Parsed, Evaluation) {
 pub fn evaluate_case(case: &Case, options: EvalOptions) -> (Vec<Derived>, Vec<Diagnostic>) {
     let mut derived = Vec::new();
     let mut diags = Vec::new();
-    compute::compute(case, options.derivations, &mut derived, &mut diags);
+    // `expect` findings after the computation's, in file order.
+    let mut expects = Vec::new();
+    let unique = ids_unique(case);
+    let judged = unique.then_some(&mut expects);
+    compute::compute_each(
+        case,
+        options.derivations,
+        &mut derived,
+        &mut diags,
+        judged,
+        &mut |_, _, _| {},
+    );
     // Exact capacity: the values are held as long as the evaluation is.
     derived.shrink_to_fit();
-    // Each block's values are pushed together; index the range of each block id
-    // once, so checking `expect` lines costs one look-up per block instead of a
-    // scan of every value of the file (quadratic on large files).
-    let ranges = block_ranges(&derived);
-    let of = |id: &str| -> &[Derived] { ranges.get(id).map_or(&[][..], |&(a, b)| &derived[a..b]) };
-    for b in &case.blocks {
-        let id = b.id();
-        expect::check(&id, b.expects(), of(&id), &mut diags);
+    if !unique {
+        // Blocks sharing an id look their `expect` lines up across each other's
+        // values: index the range of each id once, so this costs one look-up
+        // per block instead of a scan of every value (quadratic on large files).
+        let ranges = block_ranges(&derived);
+        let of =
+            |id: &str| -> &[Derived] { ranges.get(id).map_or(&[][..], |&(a, b)| &derived[a..b]) };
+        for b in &case.blocks {
+            let id = b.id();
+            expect::check(&id, b.expects(), of(&id), &mut expects);
+        }
     }
+    diags.append(&mut expects);
     (derived, diags)
+}
+
+/// True when no two blocks of `case` share an id (then each block's `expect`
+/// lines are judged against its own values alone).
+fn ids_unique(case: &Case) -> bool {
+    let mut seen = std::collections::HashSet::with_capacity(case.blocks.len());
+    case.blocks.iter().all(|b| seen.insert(b.id()))
 }
 
 /// Read, evaluate and check source text as a stream, handing the derived
@@ -269,31 +291,27 @@ fn evaluate_case_each(
     options: EvalOptions,
     each: &mut dyn FnMut(&[Derived]),
 ) -> Vec<Diagnostic> {
-    let ids: Vec<String> = case.blocks.iter().map(model::Block::id).collect();
-    let mut seen = std::collections::HashSet::with_capacity(ids.len());
-    if !ids.iter().all(|id| seen.insert(id.as_str())) {
+    if !ids_unique(case) {
         let (derived, diags) = evaluate_case(case, options);
         each(&derived);
         return diags;
     }
-    drop(seen);
-    drop(ids);
     let mut diags = Vec::new();
-    // `expect` findings after the computation's, as `evaluate_case_with` orders them.
-    let mut expect_diags = Vec::new();
+    // `expect` findings after the computation's, as `evaluate_case` orders them.
+    let mut expects = Vec::new();
     let mut buf = Vec::new();
     compute::compute_each(
         case,
         options.derivations,
         &mut buf,
         &mut diags,
-        &mut |block, id, buf, start| {
-            expect::check(id, block.expects(), &buf[start..], &mut expect_diags);
+        Some(&mut expects),
+        &mut |_, buf, start| {
             each(&buf[start..]);
             buf.truncate(start);
         },
     );
-    diags.append(&mut expect_diags);
+    diags.append(&mut expects);
     diags
 }
 

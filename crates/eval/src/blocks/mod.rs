@@ -24,7 +24,9 @@ pub mod system;
 use crate::compute::Out;
 use crate::derived::Derived;
 use crate::diagnostic::Diagnostic;
-use crate::model::{Block, Case, CaseInfo, Expect, Eye, Frame, Side, SpectacleLens};
+use crate::model::{
+    Block, Case, CaseInfo, ContactLens, Expect, Eye, Frame, ModelEye, Side, SpectacleLens, System,
+};
 use crate::read::Reader;
 use crate::schema::KeywordSpec;
 use parax_syntax::{BlockKind, Span};
@@ -79,6 +81,18 @@ pub(crate) trait Expects {
     /// The block's `expect` lines.
     fn expects_mut(&mut self) -> &mut Vec<Expect>;
 }
+
+/// Every block model with values keeps its `expect` lines in `expects`.
+macro_rules! expects {
+    ($($model:ty),*) => {
+        $(impl Expects for $model {
+            fn expects_mut(&mut self) -> &mut Vec<Expect> {
+                &mut self.expects
+            }
+        })*
+    };
+}
+expects!(Eye, Frame, SpectacleLens, ContactLens, System, ModelEye);
 
 fn read_expect<M: Expects>(r: &mut Reader<'_>, m: &mut M, span: Span, form: &'static str) {
     let e = crate::lower::read_expect(r, form, span);

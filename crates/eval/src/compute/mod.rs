@@ -14,37 +14,60 @@ use parax_optics::refraction::SphCyl;
 use parax_syntax::Span;
 use std::sync::Arc;
 
-/// Every derived value and diagnostic of a case, block by block in file order;
-/// the substituted formulas only when `derivations` is true.
-pub fn compute(
-    case: &Case,
+/// What [`compute_each`] calls after each block: the block, the buffer and the
+/// index where the block's values start in it.
+pub(crate) type BlockDone<'a> = dyn FnMut(&Block, &mut Vec<Derived>, usize) + 'a;
+
+/// The one per-block step of every evaluation mode (full, streaming,
+/// incremental, a hover's derivations): compute block `i` of the case, pushing
+/// its values onto `out` and the diagnostics of computing it onto `diags`; then,
+/// when `expects` is given, judge the block's `expect` lines against its own
+/// values into it (right when no other block shares its id). `visits` must
+/// index at least this eye, its partner and its previous visit when the block
+/// is an eye block. Returns the block's id.
+pub(crate) fn block_step(
+    cx: &Context<'_>,
+    visits: &Visits<'_>,
+    i: usize,
     derivations: bool,
-    derived: &mut Vec<Derived>,
+    out: &mut Vec<Derived>,
     diags: &mut Vec<Diagnostic>,
-) {
-    compute_each(case, derivations, derived, diags, &mut |_, _, _, _| {});
+    expects: Option<&mut Vec<Diagnostic>>,
+) -> Arc<String> {
+    let start = out.len();
+    let id = blocks::compute(cx, visits, i, derivations, out, diags);
+    if let Some(expects) = expects {
+        crate::expect::check(&id, cx.case.blocks[i].expects(), &out[start..], expects);
+    }
+    id
 }
 
-/// What [`compute_each`] calls after each block: the block, its id, the buffer
-/// and the index where the block's values start in it.
-pub(crate) type BlockDone<'a> = dyn FnMut(&Block, &str, &mut Vec<Derived>, usize) + 'a;
-
-/// [`compute`] one block at a time: the values of each block are pushed onto
-/// `buf`, then `done` is called with the block, its id and the index where its
-/// values start (it may drain them). Blocks come in file order.
+/// [`block_step`] for every block in file order: the values of each block are
+/// pushed onto `buf`, then `done` is called with the block and the index where
+/// its values start (it may drain them). `expect` findings go to `expects`
+/// when given (see [`block_step`]).
 pub(crate) fn compute_each(
     case: &Case,
     derivations: bool,
     buf: &mut Vec<Derived>,
     diags: &mut Vec<Diagnostic>,
+    mut expects: Option<&mut Vec<Diagnostic>>,
     done: &mut BlockDone<'_>,
 ) {
     let cx = Context::new(case);
     let visits = Visits::new(case);
     for (i, b) in case.blocks.iter().enumerate() {
         let start = buf.len();
-        let id = blocks::compute(&cx, &visits, i, derivations, buf, diags);
-        done(b, &id, buf, start);
+        block_step(
+            &cx,
+            &visits,
+            i,
+            derivations,
+            buf,
+            diags,
+            expects.as_deref_mut(),
+        );
+        done(b, buf, start);
     }
 }
 

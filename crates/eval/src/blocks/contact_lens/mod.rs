@@ -8,7 +8,7 @@ mod compute;
 pub use compute::block_id;
 pub(crate) use compute::compute;
 
-use super::{expect, note, one, Expects, Keyword};
+use super::{expect, note, one, Keyword};
 use crate::lower::{at, side};
 use crate::model::{At, Expect, Rx, Side};
 use crate::read::Reader;
@@ -35,12 +35,6 @@ pub struct ContactLens {
     pub diameter: Option<At<f64>>,
     /// `expect` lines.
     pub expects: Vec<Expect>,
-}
-
-impl Expects for ContactLens {
-    fn expects_mut(&mut self) -> &mut Vec<Expect> {
-        &mut self.expects
-    }
 }
 
 /// Names of the values of a `contact-lens` block (the last part of their keys).

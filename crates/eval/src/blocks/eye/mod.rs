@@ -13,7 +13,7 @@ mod visits;
 
 pub(crate) use visits::Visits;
 
-use super::{expect, one, Context, Expects, Keyword};
+use super::{expect, one, Context, Keyword};
 use crate::compute::Out;
 use crate::diagnostic::Diagnostic;
 use crate::lower::{at, read_keratometry, side};
@@ -190,12 +190,6 @@ impl Eye {
         for x in expects {
             move_expect(x, by);
         }
-    }
-}
-
-impl Expects for Eye {
-    fn expects_mut(&mut self) -> &mut Vec<Expect> {
-        &mut self.expects
     }
 }
 

@@ -7,7 +7,7 @@ mod compute;
 
 pub(crate) use compute::oc_height;
 
-use super::{expect, note, one, Context, Expects, Keyword};
+use super::{expect, note, one, Context, Keyword};
 use crate::compute::Out;
 use crate::diagnostic::Diagnostic;
 use crate::lower::at;
@@ -49,12 +49,6 @@ pub struct Frame {
     pub effective_diameter: Option<At<f64>>,
     /// `expect` lines.
     pub expects: Vec<Expect>,
-}
-
-impl Expects for Frame {
-    fn expects_mut(&mut self) -> &mut Vec<Expect> {
-        &mut self.expects
-    }
 }
 
 /// Names of the values of a `frame` block (the last part of their keys).

@@ -7,7 +7,7 @@ mod compute;
 pub use compute::block_id;
 pub(crate) use compute::compute;
 
-use super::{expect, many, note, one, Expects, Keyword};
+use super::{expect, many, note, one, Keyword};
 use crate::lower::at;
 use crate::model::{At, Expect};
 use crate::read::Reader;
@@ -43,12 +43,6 @@ pub struct ModelEye {
     pub surfaces: Vec<At<SurfaceOverride>>,
     /// `expect` lines.
     pub expects: Vec<Expect>,
-}
-
-impl Expects for ModelEye {
-    fn expects_mut(&mut self) -> &mut Vec<Expect> {
-        &mut self.expects
-    }
 }
 
 /// Names of the values of a `model-eye` block (the last part of their keys).

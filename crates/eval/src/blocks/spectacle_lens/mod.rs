@@ -7,7 +7,7 @@ pub(crate) mod compute;
 
 pub(crate) use compute::compute;
 
-use super::{expect, note, one, Expects, Keyword};
+use super::{expect, note, one, Keyword};
 use crate::lower::{at, read_prism, side};
 use crate::model::{At, Expect, Rx, Side};
 use crate::read::Reader;
@@ -82,12 +82,6 @@ impl SpectacleLens {
             measured_prism: None,
             expects: Vec::new(),
         }
-    }
-}
-
-impl Expects for SpectacleLens {
-    fn expects_mut(&mut self) -> &mut Vec<Expect> {
-        &mut self.expects
     }
 }
 

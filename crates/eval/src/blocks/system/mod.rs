@@ -8,7 +8,7 @@ mod compute;
 pub use compute::block_id;
 pub(crate) use compute::compute;
 
-use super::{expect, many, note, one, Expects, Keyword};
+use super::{expect, many, note, one, Keyword};
 use crate::codes;
 use crate::diagnostic::{Diagnostic, Severity};
 use crate::model::{At, Expect};
@@ -74,12 +74,6 @@ pub struct System {
     pub elements: Vec<At<SystemElement>>,
     /// `expect` lines.
     pub expects: Vec<Expect>,
-}
-
-impl Expects for System {
-    fn expects_mut(&mut self) -> &mut Vec<Expect> {
-        &mut self.expects
-    }
 }
 
 impl SystemElement {
