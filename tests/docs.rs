@@ -1,18 +1,21 @@
 //! The documentation agrees with the code: every keyword of every block is
 //! documented in that block's section of docs/notation.md (with the block's header
 //! form and, in its table row, whether it repeats and whether it is evaluated), and
-//! every diagnostic code has its heading in docs/diagnostics.md, and no other.
+//! docs/diagnostics.md is what the code table (`parax_eval::codes::ALL`) generates
+//! below its hand-written introduction.
 
 use parax_eval::codes;
 use parax_eval::schema::{self, KeywordSpec};
 use parax_syntax::BlockKind;
 use std::path::PathBuf;
 
+/// The repository's root.
+fn repo() -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("..")
+}
+
 fn read_doc(name: &str) -> String {
-    let path = PathBuf::from(env!("CARGO_MANIFEST_DIR"))
-        .join("..")
-        .join("docs")
-        .join(name);
+    let path = repo().join("docs").join(name);
     std::fs::read_to_string(&path).unwrap_or_else(|e| panic!("cannot read {}: {e}", path.display()))
 }
 
@@ -116,42 +119,94 @@ fn check_keyword(
     }
 }
 
-#[test]
-fn every_code_has_its_heading_in_diagnostics() {
-    let doc = read_doc("diagnostics.md");
-    let headings: Vec<&str> = doc
-        .lines()
-        .map(str::trim_end)
-        .filter(|l| l.starts_with("## "))
-        .collect();
-    let mut problems = Vec::new();
+/// The line after which docs/diagnostics.md is generated from the code table.
+const GENERATED: &str = "<!-- Generated below this line from the table in crates/eval/src/codes.rs: edit the table, then run `PARAX_BLESS=1 cargo test -p parax-tests --test docs`. -->";
+
+/// `Severity: warning; error for a surface that does not exist.`
+fn severity_line(info: &codes::CodeInfo) -> String {
+    let mut line = format!("Severity: {}", info.severity.name());
+    for (severity, when) in info.also {
+        line.push_str(&format!("; {} {when}", severity.name()));
+    }
+    line.push('.');
+    line
+}
+
+/// The page: the hand-written introduction, then per code its heading, the
+/// explanation, the severities and the example, all from the table.
+fn diagnostics_page(introduction: &str) -> String {
+    let mut page = format!("{introduction}{GENERATED}\n");
     for info in codes::ALL {
-        let want = format!("## {} {}", info.code, info.title);
-        if !headings.contains(&want.as_str()) {
-            problems.push(format!("missing heading `{want}`"));
+        page.push_str(&format!("\n## {} {}\n\n", info.code, info.title));
+        if !info.about.is_empty() {
+            page.push_str(info.about);
+            page.push_str("\n\n");
+        }
+        page.push_str(&severity_line(info));
+        page.push('\n');
+        if !info.example.is_empty() {
+            page.push('\n');
+            page.push_str(info.example);
+            page.push('\n');
         }
     }
-    // And no heading for a code that does not exist (or whose title changed).
-    for h in &headings {
-        let Some(code) = h[3..].split_whitespace().next() else {
-            continue;
-        };
-        let looks_like_code = code.len() == 5
-            && code.starts_with('P')
-            && code[1..].bytes().all(|b| b.is_ascii_digit());
-        if looks_like_code
-            && !codes::ALL
-                .iter()
-                .any(|i| format!("## {} {}", i.code, i.title) == *h)
-        {
-            problems.push(format!(
-                "heading `{h}` matches no code in parax_eval::codes::ALL"
-            ));
-        }
-    }
+    page
+}
+
+/// Whether the `PARAX_BLESS` variable asks to rewrite generated files.
+fn bless() -> bool {
+    std::env::var_os("PARAX_BLESS").is_some_and(|v| !v.is_empty() && v != "0")
+}
+
+#[test]
+fn diagnostics_page_is_generated_from_the_code_table() {
+    let path = repo().join("docs/diagnostics.md");
+    let doc = read_doc("diagnostics.md");
+    let introduction = doc.split(GENERATED).next().unwrap_or_default();
     assert!(
-        problems.is_empty(),
-        "docs/diagnostics.md is out of date:\n{}",
-        problems.join("\n")
+        doc.contains(GENERATED),
+        "docs/diagnostics.md lacks the line `{GENERATED}` that ends its hand-written introduction"
     );
+    let want = diagnostics_page(introduction);
+    if want == doc {
+        return;
+    }
+    if bless() {
+        std::fs::write(&path, &want).expect("write docs/diagnostics.md");
+        return;
+    }
+    let line = want
+        .lines()
+        .zip(doc.lines())
+        .position(|(a, b)| a != b)
+        .unwrap_or(want.lines().count().min(doc.lines().count()));
+    panic!(
+        "docs/diagnostics.md differs from the code table in crates/eval/src/codes.rs from line {}: \
+         regenerate it with `PARAX_BLESS=1 cargo test -p parax-tests --test docs`",
+        line + 1
+    );
+}
+
+#[test]
+fn every_code_has_a_severity_it_is_raised_with_and_a_distinct_string() {
+    let mut seen = std::collections::HashSet::new();
+    for (i, info) in codes::ALL.iter().enumerate() {
+        assert_eq!(info.code.index(), i, "{} out of table order", info.code);
+        assert!(seen.insert(info.code.as_str()), "{} twice", info.code);
+        assert_eq!(codes::Code::parse(info.code.as_str()), Some(info.code));
+        assert!(info.code.allows(info.severity));
+        for (s, when) in info.also {
+            assert_ne!(
+                *s, info.severity,
+                "{}: `also` repeats the default",
+                info.code
+            );
+            assert!(
+                !when.is_empty(),
+                "{}: say when it is {}",
+                info.code,
+                s.name()
+            );
+        }
+    }
 }
