@@ -1,6 +1,6 @@
 //! Every diagnostic raised over the project's case files has a severity its code's
 //! table entry (`parax_eval::codes`) allows: the examples, the parser fixtures,
-//! the CLI's test data, the language server's fixtures and the example lines of
+//! the CLI's test data, the language server's fixtures, the cases of docs/cases and the example lines of
 //! docs/diagnostics.md. Inside the test suites every other input is covered too:
 //! `Diagnostic::new` checks the same in debug builds, so a test that raises a
 //! code with a severity its entry does not name panics.
@@ -12,7 +12,7 @@ use parax_testdata::{case_files_in, CASE_DIRS};
 fn inputs() -> Vec<(String, String)> {
     let mut files: Vec<(String, String)> = CASE_DIRS
         .iter()
-        .chain(&["crates/cli/tests/data", "crates/lsp/tests/fixtures"])
+        .chain(&["crates/cli/tests/data", "crates/lsp/tests/fixtures", "docs/cases"])
         .flat_map(|dir| case_files_in(dir))
         .collect();
     // The example lines of the reference page: each fenced block of an entry.
