@@ -12,7 +12,11 @@ use parax_testdata::{case_files_in, CASE_DIRS};
 fn inputs() -> Vec<(String, String)> {
     let mut files: Vec<(String, String)> = CASE_DIRS
         .iter()
-        .chain(&["crates/cli/tests/data", "crates/lsp/tests/fixtures", "docs/cases"])
+        .chain(&[
+            "crates/cli/tests/data",
+            "crates/lsp/tests/fixtures",
+            "docs/cases",
+        ])
         .flat_map(|dir| case_files_in(dir))
         .collect();
     // The example lines of the reference page: each fenced block of an entry.
