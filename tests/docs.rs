@@ -464,3 +464,32 @@ fn relative_links_resolve() {
     assert!(checked >= 10, "only {checked} relative links found");
     assert!(problems.is_empty(), "{}", problems.join("\n"));
 }
+
+#[test]
+fn documented_sarif_result_is_a_real_result() {
+    // docs/commands.md shows one SARIF result, laid out by hand, below a line
+    // naming the command; as JSON it must equal one result of the real log.
+    let doc = read_doc("commands.md");
+    let lead = "One result from `parax check --format sarif ";
+    let at = doc.find(lead).expect("the SARIF example's lead line");
+    let rest = &doc[at + lead.len()..];
+    let (file, rest) = rest.split_once('`').expect("the command's end");
+    let block = rest
+        .split_once("```json\n")
+        .and_then(|(_, b)| b.split_once("```"))
+        .map(|(b, _)| b)
+        .expect("a ```json block after the lead line");
+    let shown: serde_json::Value = serde_json::from_str(block).expect("the example is JSON");
+    let out = std::process::Command::new(parax_binary())
+        .args(["check", "--format", "sarif", file])
+        .current_dir(repo())
+        .output()
+        .expect("run parax");
+    let log: serde_json::Value = serde_json::from_slice(&out.stdout).expect("a SARIF log");
+    let results = log["runs"][0]["results"].as_array().expect("results");
+    assert!(
+        results.contains(&shown),
+        "docs/commands.md's SARIF result is not among the real ones:\n{}",
+        serde_json::to_string_pretty(results).unwrap_or_default()
+    );
+}
