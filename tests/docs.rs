@@ -125,6 +125,9 @@ const GENERATED: &str = "<!-- Generated below this line from the table in crates
 /// `Severity: warning; error for a surface that does not exist.`
 fn severity_line(info: &codes::CodeInfo) -> String {
     let mut line = format!("Severity: {}", info.severity.name());
+    if !info.severity_when.is_empty() {
+        line.push_str(&format!(" {}", info.severity_when));
+    }
     for (severity, when) in info.also {
         line.push_str(&format!("; {} {when}", severity.name()));
     }

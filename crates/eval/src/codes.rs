@@ -20,6 +20,9 @@ pub struct CodeInfo {
     pub description: &'static str,
     /// The severity it is raised with, unless one of `also` applies.
     pub severity: Severity,
+    /// When `severity` applies, where `also` names other cases (`for an unknown
+    /// name`); may be empty.
+    pub severity_when: &'static str,
     /// Other severities it is raised with, each with when (`for a system without
     /// a lens`); every severity a diagnostic of this code may carry is
     /// `severity` or one of these.
@@ -114,7 +117,7 @@ impl From<Code> for String {
 }
 
 macro_rules! codes {
-    ($($variant:ident / $name:ident = $code:literal, $sev:ident $(or $alt:ident $when:literal)*,
+    ($($variant:ident / $name:ident = $code:literal, $sev:ident $($dwhen:literal)? $(or $alt:ident $when:literal)*,
         $title:literal, $desc:literal, about $about:literal, example $example:literal;)*) => {
         /// A diagnostic code; its table entry is [`Code::info`].
         #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
@@ -130,6 +133,7 @@ macro_rules! codes {
             title: $title,
             description: $desc,
             severity: Severity::$sev,
+            severity_when: concat!("" $(, $dwhen)?),
             also: &[$((Severity::$alt, $when)),*],
             about: $about,
             example: $example,
@@ -320,7 +324,7 @@ For the first line, `23.6 mm` is plausible: the hint asks "did you mean
 23.6 mm?" and the fix replaces the unit. For the second, no other unit makes
 78.1 plausible but a shifted decimal point does: the hint asks "did you mean
 7.81 mm?", with no automatic fix. The value is still used as written."#;
-    BadAxis / BAD_AXIS = "P0204", Error or Info "for an axis of 0, which is read as 180",
+    BadAxis / BAD_AXIS = "P0204", Error "for an axis above 180 or below 0" or Info "for an axis of 0, which is read as 180",
         "axis out of range",
         "Axes are written 1 to 180 degrees (ISO 8429); 0 is written 180.",
         about r#"Axes and meridians are written from 1 to 180 degrees (ISO 8429); 0 is written
@@ -643,7 +647,7 @@ spectacle-lens right
 ```
 
 The hint suggests a larger blank or a check of the frame measurements."#;
-    Material / MATERIAL = "P0612", Info or Warning "for a recorded index that does not match the material named",
+    Material / MATERIAL = "P0612", Info "for a material not in the table" or Warning "for a recorded index that does not match the material named",
         "lens material",
         "The material is not in the table of common materials (record its index), or the recorded index does not match the material named.",
         about r#"The `material` of a spectacle lens is not in the table of common materials
