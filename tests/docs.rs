@@ -191,7 +191,7 @@ fn diagnostics_page_is_generated_from_the_code_table() {
 }
 
 #[test]
-fn every_code_has_a_severity_it_is_raised_with_and_a_distinct_string() {
+fn code_table_is_in_order_with_distinct_codes_and_stated_severities() {
     let mut seen = std::collections::HashSet::new();
     for (i, info) in codes::ALL.iter().enumerate() {
         assert_eq!(info.code.index(), i, "{} out of table order", info.code);
