@@ -205,7 +205,7 @@ fn content(source: &str) -> Content {
         })
         .collect();
     let derived = ev.derived.iter().map(|d| (d.key(), d.text())).collect();
-    let codes = ev.diagnostics.iter().map(|d| d.code).collect();
+    let codes = ev.diagnostics.iter().map(|d| d.code.as_str()).collect();
     Content {
         comments,
         statements,

@@ -309,7 +309,7 @@ fn eval_json_lists_the_full_evaluation_in_order() {
             .iter()
             .map(|d| d["code"].as_str().expect("a code"))
             .collect();
-        let want: Vec<&str> = ev.diagnostics.iter().map(|d| d.code).collect();
+        let want: Vec<&str> = ev.diagnostics.iter().map(|d| d.code.as_str()).collect();
         assert_eq!(codes, want, "{arg}: diagnostics");
     }
 }

@@ -1,6 +1,7 @@
 //! The one diagnostic model. Made here, rendered by every front end (terminal,
 //! JSON, editor) without change of code, message or span.
 
+use crate::codes::Code;
 use parax_syntax::Span;
 use serde::Serialize;
 
@@ -48,8 +49,9 @@ pub struct Fix {
 /// A finding about a case file.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Diagnostic {
-    /// Stable code, e.g. `P0201`; see [`crate::codes`].
-    pub code: &'static str,
+    /// Stable code, e.g. `P0201` (serialized as that string); its title,
+    /// description and severities are in [`crate::codes`].
+    pub code: Code,
     /// Severity.
     pub severity: Severity,
     /// One sentence saying what is wrong.
@@ -65,13 +67,15 @@ pub struct Diagnostic {
 }
 
 impl Diagnostic {
-    /// A diagnostic with no hint, fix or caution.
-    pub fn new(
-        code: &'static str,
-        severity: Severity,
-        span: Span,
-        message: impl Into<String>,
-    ) -> Self {
+    /// A diagnostic with no hint, fix or caution. In debug builds (every test),
+    /// a severity the code's table entry does not allow panics.
+    pub fn new(code: Code, severity: Severity, span: Span, message: impl Into<String>) -> Self {
+        debug_assert!(
+            code.allows(severity),
+            "{code} raised as {}: its entry in crates/eval/src/codes.rs allows {} only",
+            severity.name(),
+            allowed_names(code)
+        );
         Diagnostic {
             code,
             severity,
@@ -106,6 +110,16 @@ impl Diagnostic {
         self.caution = Some(caution);
         self
     }
+}
+
+/// The severities a code allows, for the message of a failed check.
+fn allowed_names(code: Code) -> String {
+    let info = code.info();
+    std::iter::once(info.severity)
+        .chain(info.also.iter().map(|(s, _)| *s))
+        .map(Severity::name)
+        .collect::<Vec<_>>()
+        .join(", ")
 }
 
 /// The general caution shown with every output that carries clinical values.

@@ -341,7 +341,12 @@ pub(crate) fn push_growing_slowly<T>(list: &mut Vec<T>, item: T) {
 }
 
 fn from_syntax(e: &parax_syntax::SyntaxError) -> Diagnostic {
-    let mut d = Diagnostic::new(e.code, Severity::Error, e.span, e.message.clone());
+    let mut d = Diagnostic::new(
+        codes::Code::of_syntax(e.code),
+        Severity::Error,
+        e.span,
+        e.message.clone(),
+    );
     d.hint = e.hint.clone();
     if let Some(r) = &e.replacement {
         d = d.fix(format!("write `{r}`"), e.span, r.clone());

@@ -19,7 +19,7 @@ fn num(ev: &Evaluation, key: &str) -> f64 {
 }
 
 fn codes(ev: &Evaluation) -> Vec<&str> {
-    ev.diagnostics.iter().map(|d| d.code).collect()
+    ev.diagnostics.iter().map(|d| d.code.as_str()).collect()
 }
 
 #[test]

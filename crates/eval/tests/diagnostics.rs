@@ -8,7 +8,7 @@ fn diags(src: &str) -> Vec<(String, usize, usize, Diagnostic)> {
         .into_iter()
         .map(|d| {
             let (l, c) = p.index.line_col(&p.source, d.span.start());
-            (d.code.to_owned(), l, c, d)
+            (d.code.to_string(), l, c, d)
         })
         .collect()
 }
@@ -158,6 +158,6 @@ fn syntax_codes_agree_with_the_code_table() {
         ),
         (s::TOO_LARGE, parax_eval::codes::TOO_LARGE),
     ] {
-        assert_eq!(syn, table);
+        assert_eq!(syn, table.as_str());
     }
 }

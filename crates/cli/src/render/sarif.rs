@@ -126,7 +126,7 @@ pub fn results(location: &Value, parsed: &Parsed, diags: &[Diagnostic]) -> Vec<V
                 stop(&mut message);
                 message.push_str(&format!(" Caution: {c}"));
             }
-            let rule_index = ALL.iter().position(|c| c.code == d.code);
+            let rule_index = d.code.index();
             json!({
                 "ruleId": d.code,
                 "ruleIndex": rule_index,
