@@ -7,7 +7,7 @@
 //! * its model type (re-exported by [`crate::model`]);
 //! * its derived-value names as constants (`eye::keys::SPHERICAL_EQUIVALENT`),
 //!   the only place a value's name is written, with `keys::ALL` listing them;
-//! * its compute step (`compute`), from the model and the [`Context`] of the
+//! * its compute step (`compute`), from the model and the `Context` of the
 //!   other blocks it depends on.
 //!
 //! This module dispatches over [`Block`], the enum of those models, so that a
