@@ -225,6 +225,180 @@ impl Lineup {
     }
 }
 
+/// Read the top-level blocks `mid` (those an edit changed) into models, placed
+/// after the models `before`: the models, the blocks' memos (model indices
+/// counted from the start of the file) and each block's reading diagnostics.
+/// `case` blocks are left for [`read_unchanged`], which reads them in file order.
+fn read_changed(
+    parsed: &Parsed,
+    mid: &[parax_syntax::Block],
+    before: &[Block],
+) -> (Vec<Block>, Vec<BlockMemo>, Vec<Vec<Diagnostic>>) {
+    let mut fresh: Vec<Block> = Vec::new();
+    let mut mid_diags: Vec<Vec<Diagnostic>> = Vec::with_capacity(mid.len());
+    let mut memos = Vec::with_capacity(mid.len());
+    let mut scratch = crate::model::CaseInfo::default();
+    for b in mid {
+        let mut diags = Vec::new();
+        let mut model = None;
+        if b.kind != BlockKind::Case {
+            let kinds_before = |k: BlockKind| {
+                before
+                    .iter()
+                    .chain(&fresh)
+                    .filter(|m| m.kind() == k)
+                    .count()
+            };
+            if let Some(m) = lower::read_block(parsed, b, &mut scratch, &kinds_before, &mut diags) {
+                model = Some(before.len() + fresh.len());
+                fresh.push(m);
+            }
+        }
+        let kept = if b.kind == BlockKind::Eye {
+            diags.clone()
+        } else {
+            Vec::new()
+        };
+        let reusable = kept.iter().all(|d| diag_inside(d, b.span));
+        memos.push(BlockMemo {
+            text: parsed.text(b.span).to_owned(),
+            start: b.span.start(),
+            model,
+            diags: kept,
+            reusable,
+        });
+        mid_diags.push(diags);
+    }
+    (fresh, memos, mid_diags)
+}
+
+/// Every block's reading diagnostics in file order, after the syntax errors:
+/// those of the changed blocks `mid` (read by [`read_changed`]), an unchanged
+/// eye block's kept ones (its model moved by `delta` when it stands after the
+/// edit); the `case` blocks and the other unchanged blocks are read again (into
+/// their model's place in `case`).
+fn read_unchanged(
+    parsed: &Parsed,
+    blocks: &[BlockMemo],
+    case: &mut Case,
+    mid: Range<usize>,
+    mid_diags: &[Vec<Diagnostic>],
+    delta: isize,
+) -> Vec<Diagnostic> {
+    let mut diagnostics: Vec<Diagnostic> = parsed.errors.iter().map(from_syntax).collect();
+    for (k, b) in parsed.blocks.iter().enumerate() {
+        if mid.contains(&k) && b.kind != BlockKind::Case {
+            diagnostics.extend(mid_diags[k - mid.start].iter().cloned());
+            continue;
+        }
+        let memo = &blocks[k];
+        match b.kind {
+            BlockKind::Eye => {
+                diagnostics.extend(memo.diags.iter().cloned());
+                if k >= mid.end && delta != 0 {
+                    if let Some(Block::Eye(e)) = memo.model.map(|m| &mut case.blocks[m]) {
+                        e.move_spans(delta);
+                    }
+                }
+            }
+            _ => {
+                let slot = memo.model;
+                let models = &case.blocks;
+                let kinds_before = |kind: BlockKind| {
+                    let end = slot.unwrap_or(0);
+                    models[..end].iter().filter(|m| m.kind() == kind).count()
+                };
+                let model =
+                    lower::read_block(parsed, b, &mut case.info, &kinds_before, &mut diagnostics);
+                if let (Some(m), Some(slot)) = (model, slot) {
+                    case.blocks[slot] = m;
+                }
+            }
+        }
+    }
+    diagnostics
+}
+
+/// Update the count of each eye block id: `removed` blocks go, `added` ones
+/// come. False when an id is then counted twice.
+fn count_eye_ids(ids: &mut HashMap<String, usize>, removed: &[Block], added: &[Block]) -> bool {
+    for b in removed.iter().filter(|b| matches!(b, Block::Eye(_))) {
+        let id = b.id();
+        if let Some(n) = ids.get_mut(&id) {
+            *n -= 1;
+            if *n == 0 {
+                ids.remove(&id);
+            }
+        }
+    }
+    let mut unique = true;
+    for b in added.iter().filter(|b| matches!(b, Block::Eye(_))) {
+        let n = ids.entry(b.id()).or_insert(0);
+        *n += 1;
+        unique &= *n == 1;
+    }
+    unique
+}
+
+/// Add every block's diagnostics of computing and of its `expect` lines to the
+/// reading diagnostics, in the order of a full evaluation (reading, computing,
+/// then `expect` lines, each block in file order, sorted by place); returns the
+/// indices of the values outside their block, for `values_starting_in`.
+fn finish(
+    derived: &[Derived],
+    values: &[ValuesMemo],
+    diagnostics: &mut Vec<Diagnostic>,
+) -> Vec<usize> {
+    for m in values {
+        diagnostics.extend(m.diags.iter().cloned());
+    }
+    for m in values {
+        diagnostics.extend(m.expects.iter().cloned());
+    }
+    diagnostics.sort_by_key(|d| (d.span.start, d.severity));
+    let mut loose: Vec<usize> = values
+        .iter()
+        .filter(|m| !m.reusable)
+        .flat_map(|m| m.derived.clone())
+        .collect();
+    loose.sort_by_key(|&i| (derived[i].span.start, i));
+    loose
+}
+
+/// How many top-level blocks at the start (`.0`) and at the end (`.1`) of the
+/// file are the old ones: at the same place (those at the end moved by
+/// `delta`), with the same text. With `edit` known, a block wholly before or
+/// after it with the same length is the same without comparing its text.
+fn line_up(
+    old: &[BlockMemo],
+    parsed: &Parsed,
+    edit: Option<&(Range<usize>, usize)>,
+    delta: isize,
+) -> (usize, usize) {
+    let new = &parsed.blocks;
+    let same = |o: &BlockMemo, n: &parax_syntax::Block, by: isize| {
+        if !o.reusable || o.start as isize + by != n.span.start as isize {
+            return false;
+        }
+        let untouched = edit.is_some_and(|(e, _)| {
+            o.text.len() == n.span.len() && (o.start + o.text.len() <= e.start || o.start >= e.end)
+        });
+        untouched || o.text == parsed.text(n.span)
+    };
+    let mut p = 0;
+    while p < old.len() && p < new.len() && same(&old[p], &new[p], 0) {
+        p += 1;
+    }
+    let mut s = 0;
+    while s < old.len() - p
+        && s < new.len() - p
+        && same(&old[old.len() - 1 - s], &new[new.len() - 1 - s], delta)
+    {
+        s += 1;
+    }
+    (p, s)
+}
+
 fn evaluate_with(
     parsed: &Parsed,
     previous: Option<Evaluation>,
@@ -259,32 +433,7 @@ fn evaluate_with(
     let edit = edit.filter(|(e, ins)| {
         e.start <= e.end && e.end <= old_len && old_len - e.len() + ins == parsed.source.len()
     });
-    let same = |o: &BlockMemo, n: &parax_syntax::Block, by: isize| {
-        if !o.reusable || o.start as isize + by != n.span.start as isize {
-            return false;
-        }
-        // Wholly before the edit, or wholly after it, with the same length:
-        // the same bytes.
-        let untouched = edit.as_ref().is_some_and(|(e, _)| {
-            o.text.len() == n.span.len() && (o.start + o.text.len() <= e.start || o.start >= e.end)
-        });
-        untouched || o.text == parsed.text(n.span)
-    };
-    let mut p = 0;
-    while p < old_blocks.len() && p < new.len() && same(&old_blocks[p], &new[p], 0) {
-        p += 1;
-    }
-    let mut s = 0;
-    while s < old_blocks.len() - p
-        && s < new.len() - p
-        && same(
-            &old_blocks[old_blocks.len() - 1 - s],
-            &new[new.len() - 1 - s],
-            delta,
-        )
-    {
-        s += 1;
-    }
+    let (p, s) = line_up(&old_blocks, parsed, edit.as_ref(), delta);
     let (old_mid, new_mid) = (p..old_blocks.len() - s, p..new.len() - s);
     // The models of the blocks before and after the changed ones.
     let models_before = old_blocks[..p]
@@ -298,41 +447,8 @@ fn evaluate_with(
         .unwrap_or(old_models.len());
 
     // Read the changed blocks (the `case` blocks come later, in file order).
-    let mut fresh: Vec<Block> = Vec::new();
-    let mut mid_diags: Vec<Vec<Diagnostic>> = Vec::with_capacity(new_mid.len());
-    let mut mid_memos = Vec::with_capacity(new_mid.len());
-    let mut scratch = crate::model::CaseInfo::default();
-    for b in &new[new_mid.clone()] {
-        let mut diags = Vec::new();
-        let mut model = None;
-        if b.kind != BlockKind::Case {
-            let kinds_before = |k: BlockKind| {
-                old_models[..models_before]
-                    .iter()
-                    .chain(&fresh)
-                    .filter(|m| m.kind() == k)
-                    .count()
-            };
-            if let Some(m) = lower::read_block(parsed, b, &mut scratch, &kinds_before, &mut diags) {
-                model = Some(models_before + fresh.len());
-                fresh.push(m);
-            }
-        }
-        let kept = if b.kind == BlockKind::Eye {
-            diags.clone()
-        } else {
-            Vec::new()
-        };
-        let reusable = kept.iter().all(|d| diag_inside(d, b.span));
-        mid_memos.push(BlockMemo {
-            text: parsed.text(b.span).to_owned(),
-            start: b.span.start(),
-            model,
-            diags: kept,
-            reusable,
-        });
-        mid_diags.push(diags);
-    }
+    let (fresh, mid_memos, mid_diags) =
+        read_changed(parsed, &new[new_mid.clone()], &old_models[..models_before]);
     let lineup = Lineup {
         before: models_before,
         after: models_before + fresh.len(),
@@ -358,61 +474,19 @@ fn evaluate_with(
     }
     let blocks = old_blocks;
 
-    // Every block's reading diagnostics in file order: unchanged eye blocks
-    // keep theirs, the `case` blocks and the other unchanged blocks are read
-    // again (into their model's place).
-    let mut diagnostics: Vec<Diagnostic> = parsed.errors.iter().map(from_syntax).collect();
-    for (k, b) in new.iter().enumerate() {
-        if new_mid.contains(&k) && b.kind != BlockKind::Case {
-            diagnostics.extend(mid_diags[k - p].iter().cloned());
-            continue;
-        }
-        let memo = &blocks[k];
-        match b.kind {
-            BlockKind::Eye => {
-                diagnostics.extend(memo.diags.iter().cloned());
-                if k >= new_mid.end && delta != 0 {
-                    if let Some(Block::Eye(e)) = memo.model.map(|m| &mut case.blocks[m]) {
-                        e.move_spans(delta);
-                    }
-                }
-            }
-            _ => {
-                let slot = memo.model;
-                let models = &case.blocks;
-                let kinds_before = |kind: BlockKind| {
-                    let end = slot.unwrap_or(0);
-                    models[..end].iter().filter(|m| m.kind() == kind).count()
-                };
-                let model =
-                    lower::read_block(parsed, b, &mut case.info, &kinds_before, &mut diagnostics);
-                if let (Some(m), Some(slot)) = (model, slot) {
-                    case.blocks[slot] = m;
-                }
-            }
-        }
-    }
+    let mut diagnostics = read_unchanged(
+        parsed,
+        &blocks,
+        &mut case,
+        new_mid.clone(),
+        &mid_diags,
+        delta,
+    );
 
     // Block ids of eyes must be unique: two eye blocks with the same id share
     // their `expect` look-ups, so then everything is evaluated in full.
-    for b in removed.iter().filter(|b| matches!(b, Block::Eye(_))) {
-        let id = b.id();
-        if let Some(n) = ids.get_mut(&id) {
-            *n -= 1;
-            if *n == 0 {
-                ids.remove(&id);
-            }
-        }
-    }
-    let mut duplicate = false;
-    for b in case.blocks[lineup.before..lineup.after]
-        .iter()
-        .filter(|b| matches!(b, Block::Eye(_)))
-    {
-        let n = ids.entry(b.id()).or_insert(0);
-        *n += 1;
-        duplicate |= *n > 1;
-    }
+    let added = &case.blocks[lineup.before..lineup.after];
+    let duplicate = !count_eye_ids(&mut ids, &removed, added);
     if duplicate {
         return crate::evaluate_with(parsed, options);
     }
@@ -468,22 +542,7 @@ fn evaluate_with(
     };
     derived.shrink_to_fit();
     share_expects(&case, &derived, &mut values);
-    // Diagnostics in the order of a full evaluation: reading, computing, then
-    // `expect` lines, each block in file order.
-    for m in &values {
-        diagnostics.extend(m.diags.iter().cloned());
-    }
-    for m in &values {
-        diagnostics.extend(m.expects.iter().cloned());
-    }
-    diagnostics.sort_by_key(|d| (d.span.start, d.severity));
-    // Values outside their block, for `values_starting_in`.
-    let mut loose: Vec<usize> = values
-        .iter()
-        .filter(|m| !m.reusable)
-        .flat_map(|m| m.derived.clone())
-        .collect();
-    loose.sort_by_key(|&i| (derived[i].span.start, i));
+    let loose = finish(&derived, &values, &mut diagnostics);
     Evaluation {
         case,
         derived,
