@@ -72,11 +72,7 @@ fn an_edit_equals_a_fresh_analysis() {
     // Three edits in order, each in the text the one before left: the cover of
     // an edit before, inside and after the first.
     let b = v0.find("x 10").expect("in the text");
-    let a = Analysis::new(v0).edits([
-        (b + 2..b + 4, "15"),
-        (0..4, "case"),
-        (at..at + 1, "+"),
-    ]);
+    let a = Analysis::new(v0).edits([(b + 2..b + 4, "15"), (0..4, "case"), (at..at + 1, "+")]);
     let want = spliced(&spliced(v0, b + 2..b + 4, "15"), at..at + 1, "+");
     same(&a, &Analysis::new(&want));
 }
