@@ -64,7 +64,13 @@ fn every_module_has_a_doc_comment() {
 fn declared_dependencies() -> Vec<(String, String, String)> {
     let cargo = option_env!("CARGO").unwrap_or("cargo");
     let out = std::process::Command::new(cargo)
-        .args(["metadata", "--no-deps", "--offline", "--format-version", "1"])
+        .args([
+            "metadata",
+            "--no-deps",
+            "--offline",
+            "--format-version",
+            "1",
+        ])
         .current_dir(root())
         .output()
         .expect("cargo metadata runs");
@@ -89,14 +95,21 @@ fn declared_dependencies() -> Vec<(String, String, String)> {
 
 /// Every dependency that breaks the layering DEVELOPERS.md states.
 fn layering_violations(deps: &[(String, String, String)]) -> Vec<String> {
-    let is_lsp = |d: &str| matches!(d, "tower-lsp-server" | "tower-lsp" | "lsp-types" | "ls-types");
+    let is_lsp = |d: &str| {
+        matches!(
+            d,
+            "tower-lsp-server" | "tower-lsp" | "lsp-types" | "ls-types"
+        )
+    };
     let mut out = Vec::new();
     for (p, d, kind) in deps {
         let parax = d.starts_with("parax-");
         let normal = kind == "normal";
+        // The shared test inputs, allowed to every crate's tests.
+        let test_inputs = d == "parax-testdata" && !normal;
         let wrong = match p.as_str() {
             // Knows no optics and no other parax crate (its tests may share the test inputs).
-            "parax-syntax" => parax && !(d == "parax-testdata" && !normal),
+            "parax-syntax" => parax && !test_inputs,
             // Pure maths: no parax crate at all.
             "parax-optics" => parax,
             // Drawing only: depends on nothing of parax.
@@ -105,7 +118,7 @@ fn layering_violations(deps: &[(String, String, String)]) -> Vec<String> {
             "parax-eval" => {
                 parax
                     && !(normal && matches!(d.as_str(), "parax-syntax" | "parax-optics"))
-                    && !(d == "parax-testdata" && !normal)
+                    && !test_inputs
             }
             // Test inputs for every crate: depends on no parax crate.
             "parax-testdata" => parax,
