@@ -15,6 +15,9 @@ pub struct Counts {
     pub received: usize,
     /// Documents the worker took up (its changes queued so far taken with it).
     pub taken: usize,
+    /// Queued changes the worker took with them, in all (a whole text read
+    /// afresh counts as one).
+    pub changes_taken: usize,
     /// Evaluations the worker finished and kept or dropped.
     pub evaluated: usize,
     /// Of those, the ones of the newest text (and so published).
@@ -94,8 +97,11 @@ impl Gate {
         self.inner.counts.send_modify(|c| c.received += 1);
     }
 
-    pub(crate) fn taken(&self) {
-        self.inner.counts.send_modify(|c| c.taken += 1);
+    pub(crate) fn taken(&self, changes: usize) {
+        self.inner.counts.send_modify(|c| {
+            c.taken += 1;
+            c.changes_taken += changes;
+        });
     }
 
     pub(crate) fn evaluated(&self, published: bool) {

@@ -226,7 +226,12 @@ impl Job {
 
     /// The analysis of the document's text: the last whole text (compared
     /// with the starting analysis, if any), then the edits after it.
-    fn run(start: Option<Arc<Analysis>>, changes: Vec<Change>) -> Analysis {
+    fn run(start: Option<Arc<Analysis>>, changes: Vec<Change>) -> Arc<Analysis> {
+        // Nothing queued (a request analysed the newest text meanwhile): the
+        // analysis is already the document's, shared as it is.
+        if let (Some(start), true) = (&start, changes.is_empty()) {
+            return start.clone();
+        }
         // Unshared unless a request is reading it right now.
         let start = start.map(|p| Arc::try_unwrap(p).unwrap_or_else(|p| (*p).clone()));
         let whole = changes.iter().rposition(|c| matches!(c, Change::Whole(_)));
@@ -245,10 +250,10 @@ impl Job {
             // `take_job` always gives a whole text when there is no analysis.
             (None, None) => (Analysis::new(""), &changes[..]),
         };
-        a.edits(edits.iter().filter_map(|c| match c {
+        Arc::new(a.edits(edits.iter().filter_map(|c| match c {
             Change::Edit { range, text } => Some((range.clone(), text.as_str())),
             Change::Whole(_) => None,
-        }))
+        })))
     }
 }
 
@@ -297,7 +302,7 @@ async fn worker(client: Client, state: Arc<Mutex<State>>, wake: Arc<Notify>, gat
                 continue;
             };
             if let Some(g) = &gate {
-                g.taken();
+                g.taken(job.changes.len());
             }
             let light = job.light();
             let Job {
@@ -324,7 +329,6 @@ async fn worker(client: Client, state: Arc<Mutex<State>>, wake: Arc<Notify>, gat
                     Err(_) => continue,
                 }
             };
-            let a = Arc::new(a);
             if let Some(g) = &gate {
                 g.before_keeping().await;
             }

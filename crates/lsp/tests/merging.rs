@@ -117,9 +117,10 @@ async fn edits_merged_while_an_evaluation_runs_are_evaluated_exactly_as_schedule
     let (r, w) = tokio::io::split(client_end);
     let mut c = Client::new(r, w);
     let uri = "file:///burst.parax";
-    let counts = |received, taken, evaluated, published| Counts {
+    let counts = |received, taken, changes_taken, evaluated, published| Counts {
         received,
         taken,
+        changes_taken,
         evaluated,
         published,
     };
@@ -128,14 +129,14 @@ async fn edits_merged_while_an_evaluation_runs_are_evaluated_exactly_as_schedule
         c.notify("textDocument/didOpen", json!({"textDocument": {"uri": uri, "languageId": "parax", "version": 1, "text": text}})).await?;
         // Nothing is evaluated while the gate is closed.
         gate.until(|c| c.received == 1).await;
-        assert_eq!(gate.counts(), counts(1, 0, 0, 0));
+        assert_eq!(gate.counts(), counts(1, 0, 0, 0, 0));
 
         // Version 1: one evaluation, published.
         gate.allow_taking(1);
         gate.allow_keeping(1);
         let first = c.wait_for("textDocument/publishDiagnostics", |p| p["version"] == 1).await?;
         assert_eq!(published(&first), fresh(&text));
-        assert_eq!(gate.counts(), counts(1, 1, 1, 1));
+        assert_eq!(gate.counts(), counts(1, 1, 1, 1, 1));
 
         // Versions 2 to 21 arrive before the worker may start: one evaluation
         // takes them all up.
@@ -157,13 +158,13 @@ async fn edits_merged_while_an_evaluation_runs_are_evaluated_exactly_as_schedule
         gate.until(|c| c.received == 42).await;
         gate.allow_keeping(1);
         gate.until(|c| c.evaluated == 2).await;
-        assert_eq!(gate.counts(), counts(42, 2, 2, 1));
+        assert_eq!(gate.counts(), counts(42, 2, 21, 2, 1));
 
         // One more evaluation, from the stale one plus the 22 changes after it.
         gate.allow_taking(1);
         gate.allow_keeping(1);
         let last = c.wait_for("textDocument/publishDiagnostics", |p| p["version"] == 42).await?;
-        assert_eq!(gate.counts(), counts(42, 3, 3, 2));
+        assert_eq!(gate.counts(), counts(42, 3, 43, 3, 2));
         // -2.00 / -0.50: M = S + C/2 = -2.25 D [S: Thibos et al. 1997], not the
         // recorded -1.25 D, so the recorded result fails (P0401).
         let got = published(&last);
@@ -176,6 +177,70 @@ async fn edits_merged_while_an_evaluation_runs_are_evaluated_exactly_as_schedule
             .filter(|n| n["method"] == "textDocument/publishDiagnostics")
             .collect();
         assert!(others.is_empty(), "{others:?}");
+        std::io::Result::Ok(())
+    })
+    .await
+    .expect("in time")
+    .expect("exchange");
+}
+
+/// Whole-text changes queued among ranged ones, and an analysis a request made
+/// meanwhile (a hover while the worker is held): the worker starts from the
+/// newest analysis with only the changes after it, and publishes what a fresh
+/// analysis gives.
+#[tokio::test(flavor = "multi_thread", worker_threads = 2)]
+async fn whole_text_changes_and_request_analyses_are_merged_exactly() {
+    let mut text = case();
+    let gate = Gate::closed();
+    let (client_end, server_end) = tokio::io::duplex(1 << 22);
+    let (r, w) = tokio::io::split(server_end);
+    tokio::spawn(parax_lsp::serve_gated(r, w, gate.clone()));
+    let (r, w) = tokio::io::split(client_end);
+    let mut c = Client::new(r, w);
+    let uri = "file:///whole.parax";
+    tokio::time::timeout(Duration::from_secs(120), async {
+        c.initialize(json!({})).await?;
+        c.notify("textDocument/didOpen", json!({"textDocument": {"uri": uri, "languageId": "parax", "version": 1, "text": text}})).await?;
+        gate.allow_taking(1);
+        gate.allow_keeping(1);
+        c.wait_for("textDocument/publishDiagnostics", |p| p["version"] == 1).await?;
+
+        // A ranged edit, a whole new text (the first block's refraction changed
+        // and a block appended), a ranged edit of that text.
+        change(&mut c, uri, 2, &[digit_edit(2)], &mut text).await?;
+        text = text.replacen("-1.00 / -0.50", "-3.00 / -0.50", 1)
+            + "\neye left\n  refraction +1.00\n  expect spherical-equivalent +2.00 D\n";
+        c.notify("textDocument/didChange", json!({"textDocument": {"uri": uri, "version": 3},
+            "contentChanges": [{"text": text}]})).await?;
+        change(&mut c, uri, 4, &[digit_edit(4)], &mut text).await?;
+        gate.until(|c| c.received == 4).await;
+        // A hover analyses the newest text itself while the worker is held.
+        let hover = c
+            .request("textDocument/hover", json!({"textDocument": {"uri": uri}, "position": {"line": 3, "character": 16}}))
+            .await?;
+        assert!(hover.get("code").is_none(), "{hover}");
+        // The worker finds that analysis and nothing queued after it (of the
+        // changes taken in all, only the opening text).
+        gate.allow_taking(1);
+        gate.allow_keeping(1);
+        let p = c.wait_for("textDocument/publishDiagnostics", |p| p["version"] == 4).await?;
+        assert_eq!(published(&p), fresh(&text));
+        assert_eq!(gate.counts(), Counts { received: 4, taken: 2, changes_taken: 1, evaluated: 2, published: 2 });
+
+        // From that analysis: a whole text (the appended block's expect fixed),
+        // then a message of two ranged edits; one evaluation taking the three.
+        text = text.replace("expect spherical-equivalent +2.00 D", "expect spherical-equivalent +1.00 D");
+        c.notify("textDocument/didChange", json!({"textDocument": {"uri": uri, "version": 5},
+            "contentChanges": [{"text": text}]})).await?;
+        change(&mut c, uri, 6, &[digit_edit(6), Edit(3, 14, 18, "2.00".into())], &mut text).await?;
+        gate.until(|c| c.received == 6).await;
+        gate.allow_taking(1);
+        gate.allow_keeping(1);
+        let p = c.wait_for("textDocument/publishDiagnostics", |p| p["version"] == 6).await?;
+        assert_eq!(published(&p), fresh(&text));
+        assert_eq!(gate.counts(), Counts { received: 6, taken: 3, changes_taken: 4, evaluated: 3, published: 3 });
+        let others = c.notifications.iter().filter(|n| n["method"] == "textDocument/publishDiagnostics").count();
+        assert_eq!(others, 0);
         std::io::Result::Ok(())
     })
     .await
