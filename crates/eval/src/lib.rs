@@ -5,6 +5,7 @@
 //! these and compute nothing of their own.
 
 pub mod codes;
+pub mod cohort;
 mod compute;
 pub mod derived;
 pub mod diagnostic;
