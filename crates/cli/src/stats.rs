@@ -1,18 +1,17 @@
 //! `parax stats PATH…`: cohort statistics of the refractions in many case files,
 //! per eye and optionally per group (a case tag, or the visit year). The
 //! statistics are `parax_optics::cohort::summarize` on the power vectors that
-//! `parax-eval` derives (M, J0, J45); this module only gathers and prints them.
+//! `parax-eval` derives (M, J0, J45), gathered per group and eye by
+//! `parax_eval::cohort`; this module only reads the files and prints the result.
 
 use crate::batch::evaluate_all_with;
 use crate::files;
 use crate::render::human;
-use parax_eval::blocks::eye::keys;
+use parax_eval::cohort::{self, is_cohort_value, samples, Cohort, Sample};
 use parax_eval::model::Side;
-use parax_eval::{evaluate_streaming, DerivedValue, EvalOptions, Severity, GENERAL_CAUTION};
-use parax_optics::cohort::{summarize, CohortSummary};
-use parax_optics::PowerVector;
+use parax_eval::{evaluate_streaming, EvalOptions, Severity, GENERAL_CAUTION};
+use parax_optics::cohort::CohortSummary;
 use serde_json::json;
-use std::collections::BTreeMap;
 use std::fmt::Write as _;
 use std::io::IsTerminal;
 use std::path::{Path, PathBuf};
@@ -38,33 +37,24 @@ pub enum StatsFormat {
     Json,
 }
 
-/// One eye's power vector and the groups it belongs to.
-struct Sample {
-    groups: Vec<String>,
-    side: Side,
-    vector: PowerVector,
+impl From<GroupBy> for cohort::GroupBy {
+    fn from(g: GroupBy) -> Self {
+        match g {
+            GroupBy::None => cohort::GroupBy::None,
+            GroupBy::Tag => cohort::GroupBy::Tag,
+            GroupBy::Year => cohort::GroupBy::Year,
+        }
+    }
 }
 
 /// The samples of one file, or the reason it was left out.
 fn samples_of(path: &Path, group_by: GroupBy) -> Result<Vec<Sample>, String> {
     let source = files::read(path)?;
     let name = files::display(path);
-    // Only the three power-vector components of the eye blocks are read: keep
-    // those as the values are handed over, drop the rest.
+    // Only the values a cohort reads are kept as they are handed over.
     let mut kept = Vec::new();
     let (parsed, ev) = evaluate_streaming(&source, EvalOptions::VALUES_ONLY, &mut |values| {
-        kept.extend(
-            values
-                .iter()
-                .filter(|d| {
-                    d.block.starts_with("eye.")
-                        && matches!(
-                            &*d.name,
-                            keys::SPHERICAL_EQUIVALENT | keys::VECTOR_J0 | keys::VECTOR_J45
-                        )
-                })
-                .cloned(),
-        )
+        kept.extend(values.iter().filter(|d| is_cohort_value(d)).cloned())
     });
     if let Some(d) = ev
         .diagnostics
@@ -74,42 +64,7 @@ fn samples_of(path: &Path, group_by: GroupBy) -> Result<Vec<Sample>, String> {
         let (line, col) = parsed.index.line_col(&parsed.source, d.span.start());
         return Err(format!("{name}:{line}:{col}: {} {}", d.code, d.message));
     }
-    let power = |key: &str| {
-        kept.iter()
-            .find(|d| d.is_key(key))
-            .and_then(|d| match d.value {
-                DerivedValue::Power { dioptres } => Some(dioptres),
-                _ => None,
-            })
-    };
-    let info = &ev.case.info;
-    let mut out = Vec::new();
-    for eye in ev.case.eyes() {
-        let side = eye.side.name();
-        let (Some(m), Some(j0), Some(j45)) = (
-            power(&format!("eye.{side}.{}", keys::SPHERICAL_EQUIVALENT)),
-            power(&format!("eye.{side}.{}", keys::VECTOR_J0)),
-            power(&format!("eye.{side}.{}", keys::VECTOR_J45)),
-        ) else {
-            continue;
-        };
-        let groups = match group_by {
-            GroupBy::None => vec!["(all)".to_owned()],
-            GroupBy::Tag if info.tags.is_empty() => vec!["(no tag)".to_owned()],
-            GroupBy::Tag => info.tags.clone(),
-            GroupBy::Year => vec![eye
-                .date
-                .as_ref()
-                .or(info.date.as_ref())
-                .map_or("(no date)".to_owned(), |d| d.chars().take(4).collect())],
-        };
-        out.push(Sample {
-            groups,
-            side: eye.side,
-            vector: PowerVector::new(m, j0, j45),
-        });
-    }
-    Ok(out)
+    Ok(samples(&ev.case, &kept, group_by.into()))
 }
 
 /// Run `parax stats`; exit status 0, 1 when a file was left out (unreadable or
@@ -122,27 +77,18 @@ pub fn run(paths: &[PathBuf], group_by: GroupBy, format: StatsFormat) -> u8 {
     let results = evaluate_all_with(&list, std::io::stderr().is_terminal(), |p| {
         samples_of(p, group_by)
     });
-    let mut groups: BTreeMap<(String, Side), Vec<PowerVector>> = BTreeMap::new();
+    let mut cohort = Cohort::default();
     let mut left_out = 0;
     for r in results {
         match r {
-            Ok(samples) => {
-                for s in samples {
-                    for g in s.groups {
-                        groups.entry((g, s.side)).or_default().push(s.vector);
-                    }
-                }
-            }
+            Ok(samples) => cohort.add(samples),
             Err(e) => {
                 left_out += 1;
                 eprintln!("parax: left out {e}");
             }
         }
     }
-    let summaries: Vec<((String, Side), CohortSummary)> = groups
-        .into_iter()
-        .filter_map(|(k, v)| summarize(&v).map(|s| (k, s)))
-        .collect();
+    let summaries = cohort.summaries();
     match format {
         StatsFormat::Human => print!("{}", table(&summaries, list.len(), left_out)),
         StatsFormat::Json => {

@@ -1,9 +1,11 @@
 //! SVG diagrams for parax, as plain data in and SVG text out. This crate does
-//! no optics: every position, height and power it draws is given to it (the
-//! command line takes them from `parax_optics::system::trace` and
-//! `ray_heights` and from the derived values of `parax-eval`). It only scales
-//! them to the picture and writes SVG 1.1 elements by hand: a handful of
-//! `line`, `path` and `text` elements do not justify an SVG-writing dependency.
+//! no optics: every position, height, power and ray slope it draws is given to
+//! it (the command line takes them from `parax_optics::system::layout` and from
+//! the derived values of `parax-eval`). It lays them out ([`lens_diagram`]:
+//! labels, notes, which arrows and ray segments to draw, how far to draw a ray
+//! along its given slope), scales them to the picture and writes SVG 1.1
+//! elements by hand: a handful of `line`, `path` and `text` elements do not
+//! justify an SVG-writing dependency.
 
 #![forbid(unsafe_code)]
 #![warn(missing_docs)]
@@ -62,6 +64,125 @@ pub struct LensDiagram {
     pub chief_ray_virtual: Vec<(f64, f64)>,
     /// Notes printed under the drawing (e.g. "object at infinity").
     pub notes: Vec<String>,
+}
+
+/// The image one element forms, as given to [`lens_diagram`].
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ImageMark {
+    /// Axial position, metres; `None` at infinity.
+    pub x: Option<f64>,
+    /// Real or virtual.
+    pub real: bool,
+    /// Height relative to the object's; `None` when undefined.
+    pub height: Option<f64>,
+}
+
+/// The chief ray, as given to [`lens_diagram`].
+#[derive(Debug, Clone, PartialEq)]
+pub struct RayMark {
+    /// Height at each lens, in order.
+    pub heights: Vec<f64>,
+    /// Height at the end of the system.
+    pub exit_height: f64,
+    /// Slope after the end of the system (height per metre).
+    pub exit_slope: f64,
+}
+
+/// A lens system as numbers: what [`lens_diagram`] lays out.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SystemSketch {
+    /// Title (the system's name).
+    pub title: String,
+    /// The lenses (or surfaces, as lenses of their power), left to right.
+    pub lenses: Vec<LensMark>,
+    /// Axial position of the end of the system (after its last gap).
+    pub end: f64,
+    /// Distance of the object before the first lens; `None` at infinity.
+    pub object_before: Option<f64>,
+    /// The image each lens forms, in order.
+    pub images: Vec<ImageMark>,
+    /// The chief ray, for an object at a finite distance.
+    pub chief_ray: Option<RayMark>,
+}
+
+/// Lay a system out for [`lens_system_svg`]: the object and every image as
+/// arrows (an image of undefined height drawn at 0.6 of the object's, images at
+/// infinity as notes), and the chief ray through the lenses and on along its
+/// slope to a real final image, or to a little past the system (a fifth past
+/// the object-to-end length, at least 5 cm times 0.3) with a dashed extension
+/// back to a virtual one. `None` without a lens.
+pub fn lens_diagram(s: SystemSketch) -> Option<LensDiagram> {
+    let last_lens = s.lenses.last()?.x;
+    let mut arrows = Vec::new();
+    let mut notes = Vec::new();
+    if let Some(before) = s.object_before {
+        arrows.push(Arrow {
+            label: "object".into(),
+            x: -before,
+            height: 1.0,
+            real: true,
+            role: ArrowRole::Object,
+        });
+    } else {
+        notes.push(
+            "object at infinity: images marked at their positions (height not defined); no chief ray drawn"
+                .to_owned(),
+        );
+    }
+    let last = s.images.len().saturating_sub(1);
+    for (k, (image, lens)) in s.images.iter().zip(&s.lenses).enumerate() {
+        match image.x {
+            None => notes.push(format!("image by {} at infinity", lens.label)),
+            Some(x) => arrows.push(Arrow {
+                label: if k == last {
+                    "final image".into()
+                } else {
+                    format!("image by {}", lens.label)
+                },
+                x,
+                height: image.height.unwrap_or(0.6),
+                real: image.real,
+                role: if k == last {
+                    ArrowRole::Final
+                } else {
+                    ArrowRole::Intermediate
+                },
+            }),
+        }
+    }
+    let mut chief_ray = Vec::new();
+    let mut chief_ray_virtual = Vec::new();
+    if let (Some(before), Some(ray)) = (s.object_before, &s.chief_ray) {
+        let (z_end, y, slope) = (s.end, ray.exit_height, ray.exit_slope);
+        chief_ray.push((-before, 1.0));
+        chief_ray.extend(s.lenses.iter().zip(&ray.heights).map(|(l, h)| (l.x, *h)));
+        if z_end > last_lens {
+            chief_ray.push((z_end, y));
+        }
+        let reach = z_end + 0.3 * (z_end + before).max(0.05);
+        match s.images.last() {
+            Some(ImageMark {
+                x: Some(zi), real, ..
+            }) => {
+                let yi = y + slope * (zi - z_end);
+                if *real && *zi >= z_end {
+                    chief_ray.push((*zi, yi));
+                } else {
+                    chief_ray.push((reach, y + slope * (reach - z_end)));
+                    chief_ray_virtual = vec![(z_end, y), (*zi, yi)];
+                }
+            }
+            _ => chief_ray.push((reach, y + slope * (reach - z_end))),
+        }
+    }
+    Some(LensDiagram {
+        title: s.title,
+        lenses: s.lenses,
+        arrows,
+        chief_ray,
+        chief_ray_virtual,
+        notes,
+    })
 }
 
 /// One principal meridian of a refraction.

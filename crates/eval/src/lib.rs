@@ -6,6 +6,7 @@
 
 pub mod blocks;
 pub mod codes;
+pub mod cohort;
 mod compute;
 pub mod derived;
 pub mod diagnostic;

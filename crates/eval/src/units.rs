@@ -18,6 +18,21 @@ pub fn unit_of(symbol: &str) -> Option<Unit> {
     })
 }
 
+/// A number written `decimals` places after the point in unit `from`, written
+/// in unit `to` keeping the written precision: each factor of ten the unit
+/// shrinks by moves one decimal (12.5 mm → 1.25 cm → 0.0125 m), and trailing
+/// zeros (and a trailing point) are left out.
+pub fn written_in(value: f64, decimals: u32, from: Unit, to: Unit) -> String {
+    let converted = from.convert(value, to);
+    let places = (decimals as i32 + from.decimal_shift(to)).max(0) as usize;
+    let s = format!("{converted:.places$}");
+    if s.contains('.') {
+        s.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        s
+    }
+}
+
 /// Plain name of a dimension, for messages.
 pub fn dimension_name(d: Dimension) -> &'static str {
     match d {

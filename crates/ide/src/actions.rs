@@ -6,7 +6,8 @@
 use crate::{meets, Analysis};
 use parax_eval::blocks::eye::keys as eye;
 use parax_eval::blocks::system::keys as system;
-use parax_eval::{units::unit_of, Edit};
+use parax_eval::units::{unit_of, written_in};
+use parax_eval::Edit;
 use parax_optics::units::{Dimension, Unit};
 use parax_syntax::{Line, Span, Symbol as Sym, ValueKind};
 use serde::Serialize;
@@ -173,8 +174,7 @@ fn axis_and_units(a: &Analysis, line: &Line, range: Span, out: &mut Vec<Action>)
             if to == from {
                 continue;
             }
-            let converted = to.from_base(from.to_base(*value));
-            let text = number_text(converted, u32::from(*decimals), from, to);
+            let text = written_in(*value, u32::from(*decimals), from, to);
             out.push(Action {
                 title: format!("convert to {}: {text} {}", to.symbol(), to.symbol()),
                 kind: ActionKind::Rewrite,
@@ -191,20 +191,6 @@ fn axis_and_units(a: &Analysis, line: &Line, range: Span, out: &mut Vec<Action>)
                 diagnostic: None,
             });
         }
-    }
-}
-
-/// A converted number keeping the written precision: each factor of ten the
-/// unit shrinks by moves one decimal (12.5 mm → 1.25 cm → 0.0125 m).
-fn number_text(v: f64, decimals: u32, from: Unit, to: Unit) -> String {
-    let ratio = from.to_base(1.0) / to.to_base(1.0);
-    let shift = -(ratio.log10().round() as i32);
-    let places = (decimals as i32 + shift).max(0) as usize;
-    let s = format!("{v:.places$}");
-    if s.contains('.') {
-        s.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
-        s
     }
 }
 

@@ -15,6 +15,7 @@ pub mod tokens;
 
 use parax_eval::{Derived, EvalOptions, Evaluation};
 use parax_syntax::{Block, BlockKind, Line, Parsed, Span};
+use std::ops::Range;
 
 pub use parax_eval::Edit;
 
@@ -38,20 +39,64 @@ impl Analysis {
         Self::from_parts(parsed, evaluation)
     }
 
-    /// The analysis of `source`, a later version of the same document: only the
-    /// lines that differ are parsed again (`parax_syntax::reparse`) and only the
-    /// blocks the edit touched are read and computed again
-    /// (`parax_eval::reevaluate`, told the edit); the result equals [`Analysis::new`].
+    /// The analysis of `source`, a later version of the same document given
+    /// whole (a client that sends the whole text, or a file read again): the
+    /// one edit between the two texts is found by comparing them (common
+    /// prefix and suffix), then applied as by [`Analysis::edit`]; the result
+    /// equals [`Analysis::new`]. When the edit is known, [`Analysis::edit`] and
+    /// [`Analysis::edits`] skip the comparison.
     pub fn update(self, source: &str) -> Self {
+        let (range, insert) = changed(&self.parsed.source, source);
+        self.edit(range, insert)
+    }
+
+    /// The analysis after one edit: the bytes `range` of the current text were
+    /// replaced by `insert`. Only the lines the edit touches are parsed again
+    /// (`Parsed::edit`) and only the blocks it touched are read and computed
+    /// again (`parax_eval::reevaluate`, told the edit); the result equals
+    /// [`Analysis::new`] of the edited text. A range that is reversed, past the
+    /// end of the text or inside a character is ignored (the text stays as it
+    /// was).
+    pub fn edit(self, range: Range<usize>, insert: &str) -> Self {
+        self.edits([(range, insert)])
+    }
+
+    /// The analysis after several edits applied in order, each range in the
+    /// text as the edits before it left it (how an editor sends a burst of
+    /// changes): each is parsed as it comes, and the blocks are evaluated once,
+    /// over one range covering every edit. Invalid ranges are ignored as in
+    /// [`Analysis::edit`]. The result equals [`Analysis::new`] of the edited text.
+    pub fn edits<'a>(self, edits: impl IntoIterator<Item = (Range<usize>, &'a str)>) -> Self {
         let Analysis {
-            parsed, evaluation, ..
+            mut parsed,
+            evaluation,
         } = self;
-        let (range, insert) = changed(&parsed.source, source);
-        let inserted = insert.len();
-        let parsed = parsed.edit(range.clone(), insert);
+        let mut cover: Option<Cover> = None;
+        for (range, insert) in edits {
+            let text = &parsed.source;
+            if range.start > range.end
+                || range.end > text.len()
+                || !text.is_char_boundary(range.start)
+                || !text.is_char_boundary(range.end)
+            {
+                continue;
+            }
+            cover = Some(match cover {
+                None => Cover {
+                    start: range.start,
+                    old_end: range.end,
+                    new_end: range.start + insert.len(),
+                },
+                Some(c) => c.then(&range, insert.len()),
+            });
+            parsed = parsed.edit(range, insert);
+        }
+        let Some(c) = cover else {
+            return Analysis { parsed, evaluation };
+        };
         let edit = parax_eval::TextEdit {
-            replaced: range,
-            inserted,
+            replaced: c.start..c.old_end,
+            inserted: c.new_end - c.start,
         };
         let evaluation = parax_eval::reevaluate(
             &parsed,
@@ -122,10 +167,35 @@ pub(crate) fn meets(a: Span, b: Span) -> bool {
     a.start <= b.end && b.start <= a.end
 }
 
+/// One edit covering a sequence of edits: the bytes `start..old_end` of the
+/// text before the first edit became the bytes `start..new_end` of the text
+/// after the last one (the bytes outside are untouched).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+struct Cover {
+    start: usize,
+    old_end: usize,
+    new_end: usize,
+}
+
+impl Cover {
+    /// The cover after one more edit: `range` of the current text replaced by
+    /// `inserted` bytes.
+    fn then(self, range: &Range<usize>, inserted: usize) -> Cover {
+        // Bytes before `start` are unchanged, so `range.start` means the same
+        // in the old text; bytes after `new_end` are the old text's shifted.
+        let end = range.end.max(self.new_end);
+        Cover {
+            start: self.start.min(range.start),
+            old_end: self.old_end + (end - self.new_end),
+            new_end: end - range.len() + inserted,
+        }
+    }
+}
+
 /// The one edit that turns `old` into `new`: the bytes of `old` between the
 /// common prefix and the common suffix, and what replaces them in `new`. Edits
 /// merged from several changes become one range covering them all.
-fn changed<'a>(old: &str, new: &'a str) -> (std::ops::Range<usize>, &'a str) {
+fn changed<'a>(old: &str, new: &'a str) -> (Range<usize>, &'a str) {
     let (a, b) = (old.as_bytes(), new.as_bytes());
     let mut prefix = common_prefix(a, b);
     while !old.is_char_boundary(prefix) {

@@ -5,6 +5,7 @@
 use parax_syntax::ColumnUnit;
 use ropey::Rope;
 use std::fmt;
+use std::ops::Range;
 
 /// Why an edit was rejected.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -84,25 +85,28 @@ pub(crate) fn char_index(
 }
 
 /// Apply one change (`range` as start line/col and end line/col, or the whole
-/// text when `None`) to `rope`. On error the rope is unchanged.
+/// text when `None`) to `rope`, and return the bytes of the text before the
+/// change that it replaced (`None` for a whole-text change): the range the
+/// analysis is edited with, converted once here. On error the rope is unchanged.
 pub fn apply_change(
     rope: &mut Rope,
     range: Option<((u32, u32), (u32, u32))>,
     text: &str,
     unit: ColumnUnit,
-) -> Result<(), EditError> {
+) -> Result<Option<Range<usize>>, EditError> {
     let Some(((sl, sc), (el, ec))) = range else {
         *rope = Rope::from_str(text);
-        return Ok(());
+        return Ok(None);
     };
     let start = char_index(rope, sl, sc, unit)?;
     let end = char_index(rope, el, ec, unit)?;
     if end < start {
         return Err(EditError::Reversed);
     }
+    let bytes = rope.char_to_byte(start)..rope.char_to_byte(end);
     rope.remove(start..end);
     rope.insert(start, text);
-    Ok(())
+    Ok(Some(bytes))
 }
 
 #[cfg(test)]
@@ -113,9 +117,15 @@ mod tests {
     fn applies_edits_in_both_encodings_and_rejects_bad_ones() {
         let mut r = Rope::from_str("eye right\r\n  keratometry 7.8 mm × 175\r\n");
         // After `×` (one UTF-16 unit, two UTF-8 bytes): insert a space-free marker.
-        apply_change(&mut r, Some(((1, 22), (1, 22))), "!", ColumnUnit::Utf16).expect("in range");
+        // Bytes: `eye right\r\n` is 11, then 21 columns of which `×` is 2 bytes.
+        let at = apply_change(&mut r, Some(((1, 22), (1, 22))), "!", ColumnUnit::Utf16);
+        assert_eq!(at, Ok(Some(34..34)));
         assert_eq!(r.line(1).to_string(), "  keratometry 7.8 mm ×! 175\r\n");
-        apply_change(&mut r, Some(((1, 24), (1, 24))), "?", ColumnUnit::Utf8).expect("in range");
+        let at = apply_change(&mut r, Some(((1, 24), (1, 25))), "?", ColumnUnit::Utf8);
+        assert_eq!(at, Ok(Some(35..36)));
+        assert_eq!(r.line(1).to_string(), "  keratometry 7.8 mm ×!?175\r\n");
+        let at = apply_change(&mut r, Some(((1, 25), (1, 25))), " ", ColumnUnit::Utf8);
+        assert_eq!(at, Ok(Some(36..36)));
         assert_eq!(r.line(1).to_string(), "  keratometry 7.8 mm ×!? 175\r\n");
         let before = r.to_string();
         // Inside the two bytes of `×`.

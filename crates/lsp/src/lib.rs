@@ -8,9 +8,11 @@
 pub mod client;
 mod convert;
 mod documents;
+mod gate;
 mod server;
 
 pub use documents::{apply_change, EditError};
+pub use gate::{Counts, Gate};
 pub use server::Server;
 
 use tower_lsp_server::{LspService, Server as Transport};
@@ -73,5 +75,16 @@ where
     O: tokio::io::AsyncWrite,
 {
     let (service, socket) = LspService::new(Server::new);
+    Transport::new(input, output, socket).serve(service).await;
+}
+
+/// [`serve`] with the worker held at `gate` (a test hook: the test gives the
+/// permits, so what is merged into one evaluation does not depend on timing).
+pub async fn serve_gated<I, O>(input: I, output: O, gate: Gate)
+where
+    I: tokio::io::AsyncRead + Unpin,
+    O: tokio::io::AsyncWrite,
+{
+    let (service, socket) = LspService::new(move |client| Server::gated(client, gate));
     Transport::new(input, output, socket).serve(service).await;
 }

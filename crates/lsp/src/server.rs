@@ -6,13 +6,23 @@
 //! reading of a document goes to the blocking pool; a small update
 //! (proportional to the blocks the edits touched) runs on the worker task
 //! itself, between two messages.
+//!
+//! A change is converted once, when it arrives, into the byte range it replaced
+//! and its text, and queued on its document; the worker hands the queued changes
+//! to `Analysis::edits` (a burst merged while an evaluation ran becomes that
+//! sequence, evaluated once over one range covering it), so no whole text is
+//! copied or compared per edit. Only a whole-document change (opening, or a
+//! change without a range) goes through the whole text. A [`Gate`] (tests only)
+//! holds the worker at each step so a test can decide exactly what is merged.
 
 use crate::convert;
 use crate::documents::apply_change;
+use crate::gate::Gate;
 use parax_ide::{actions, complete, format, hints, hover, labels, outline, tokens, Analysis};
 use parax_syntax::ColumnUnit;
 use ropey::Rope;
 use std::collections::{BTreeSet, HashMap};
+use std::ops::Range;
 use std::sync::{Arc, Mutex};
 use tokio::sync::Notify;
 use tower_lsp_server::jsonrpc::Result;
@@ -23,10 +33,64 @@ struct Doc {
     uri: Uri,
     rope: Rope,
     version: i32,
-    analysis: Option<(i32, Arc<Analysis>)>,
-    /// An analysis of an older version, finished after a newer one arrived: the
-    /// worker updates from it (any earlier text will do; it is diffed).
-    base: Option<Arc<Analysis>>,
+    /// How many changes the rope has had since the document was opened: the
+    /// number of its text, by which analyses and queued changes are matched.
+    seq: u64,
+    /// The newest analysis made of the document (by the worker or a request),
+    /// of any text; `None` while the worker updates it.
+    analysis: Option<Tagged>,
+    /// The changes after the text of the newest analysis (or of the one the
+    /// worker is updating), in order: that text with these applied is the rope.
+    pending: Vec<Pending>,
+}
+
+/// An analysis with the number of the text it is of.
+struct Tagged {
+    seq: u64,
+    analysis: Arc<Analysis>,
+}
+
+/// A change as queued for the worker, with the number of the text it makes.
+struct Pending {
+    seq: u64,
+    change: Change,
+}
+
+/// One change of a document, as the analysis takes it.
+enum Change {
+    /// The bytes `range` of the text before it replaced by `text`.
+    Edit { range: Range<usize>, text: String },
+    /// A new whole text.
+    Whole(String),
+}
+
+impl Doc {
+    /// A document just opened with `text`: its one change is the whole text.
+    fn new(uri: Uri, text: String, version: i32) -> Self {
+        Doc {
+            uri,
+            rope: Rope::from_str(&text),
+            version,
+            seq: 1,
+            analysis: None,
+            pending: vec![Pending {
+                seq: 1,
+                change: Change::Whole(text),
+            }],
+        }
+    }
+
+    /// Keep `made` when it is newer than the analysis held (or none is held),
+    /// and forget the queued changes its text already has. True when kept.
+    fn keep(&mut self, made: Tagged) -> bool {
+        if self.analysis.as_ref().is_some_and(|t| t.seq >= made.seq) {
+            return false;
+        }
+        let done = self.pending.partition_point(|p| p.seq <= made.seq);
+        self.pending.drain(..done);
+        self.analysis = Some(made);
+        true
+    }
 }
 
 #[derive(Default)]
@@ -45,6 +109,7 @@ pub struct Server {
     client: Client,
     state: Arc<Mutex<State>>,
     wake: Arc<Notify>,
+    gate: Option<Gate>,
 }
 
 impl Server {
@@ -54,6 +119,16 @@ impl Server {
             client,
             state: Arc::new(Mutex::new(State::default())),
             wake: Arc::new(Notify::new()),
+            gate: None,
+        }
+    }
+
+    /// A server whose worker waits at `gate` before taking up a document and
+    /// before keeping what it computed (a test hook; see [`Gate`]).
+    pub fn gated(client: Client, gate: Gate) -> Self {
+        Server {
+            gate: Some(gate),
+            ..Server::new(client)
         }
     }
 
@@ -77,6 +152,7 @@ impl Server {
                 self.client.clone(),
                 self.state.clone(),
                 self.wake.clone(),
+                self.gate.clone(),
             ));
         }
         self.wake.notify_one();
@@ -85,15 +161,15 @@ impl Server {
     /// The analysis of the document's current text: cached when the newest
     /// version has been evaluated, computed now otherwise.
     async fn analysis(&self, uri: &Uri) -> Option<(Arc<Analysis>, ColumnUnit)> {
-        let (text, version) = {
+        let (text, seq) = {
             let st = self.lock();
             let doc = st.docs.get(uri.as_str())?;
-            if let Some((v, a)) = &doc.analysis {
-                if *v == doc.version {
-                    return Some((a.clone(), st.unit.unwrap_or(ColumnUnit::Utf16)));
+            if let Some(t) = &doc.analysis {
+                if t.seq == doc.seq {
+                    return Some((t.analysis.clone(), st.unit.unwrap_or(ColumnUnit::Utf16)));
                 }
             }
-            (doc.rope.to_string(), doc.version)
+            (doc.rope.to_string(), doc.seq)
         };
         let a = Arc::new(
             tokio::task::spawn_blocking(move || Analysis::new(&text))
@@ -103,81 +179,179 @@ impl Server {
         let mut st = self.lock();
         let unit = st.unit.unwrap_or(ColumnUnit::Utf16);
         if let Some(doc) = st.docs.get_mut(uri.as_str()) {
-            if doc.version == version {
-                doc.analysis = Some((version, a.clone()));
-            }
+            doc.keep(Tagged {
+                seq,
+                analysis: a.clone(),
+            });
         }
         Some((a, unit))
     }
 }
 
+/// What the worker takes up for one document: the analysis to start from (if
+/// any) and the changes after its text.
+struct Job {
+    key: String,
+    uri: Uri,
+    seq: u64,
+    version: i32,
+    unit: ColumnUnit,
+    start: Option<Arc<Analysis>>,
+    changes: Vec<Change>,
+}
+
+impl Job {
+    /// True when the job is bounded work that may run between two messages:
+    /// it starts from an analysis, has no whole-text change, replaces and
+    /// inserts at most [`LIGHT_BYTES`] in all, and no top-level block of the
+    /// analysis is over [`LIGHT_BYTES`] (an edit re-reads whole blocks).
+    fn light(&self) -> bool {
+        let Some(start) = &self.start else {
+            return false;
+        };
+        let mut bytes = 0;
+        for c in &self.changes {
+            match c {
+                Change::Edit { range, text } => bytes += range.len() + text.len(),
+                Change::Whole(_) => return false,
+            }
+        }
+        bytes <= LIGHT_BYTES
+            && start
+                .parsed
+                .blocks
+                .iter()
+                .all(|b| b.span.len() <= LIGHT_BYTES)
+    }
+
+    /// The analysis of the document's text: the last whole text (compared
+    /// with the starting analysis, if any), then the edits after it.
+    fn run(start: Option<Arc<Analysis>>, changes: Vec<Change>) -> Arc<Analysis> {
+        // Nothing queued (a request analysed the newest text meanwhile): the
+        // analysis is already the document's, shared as it is.
+        if let (Some(start), true) = (&start, changes.is_empty()) {
+            return start.clone();
+        }
+        // Unshared unless a request is reading it right now.
+        let start = start.map(|p| Arc::try_unwrap(p).unwrap_or_else(|p| (*p).clone()));
+        let whole = changes.iter().rposition(|c| matches!(c, Change::Whole(_)));
+        let (a, edits) = match (whole, start) {
+            (Some(i), start) => {
+                let Change::Whole(text) = &changes[i] else {
+                    unreachable!("found as a whole text")
+                };
+                let a = match start {
+                    Some(p) => p.update(text),
+                    None => Analysis::new(text),
+                };
+                (a, &changes[i + 1..])
+            }
+            (None, Some(p)) => (p, &changes[..]),
+            // `take_job` always gives a whole text when there is no analysis.
+            (None, None) => (Analysis::new(""), &changes[..]),
+        };
+        Arc::new(a.edits(edits.iter().filter_map(|c| match c {
+            Change::Edit { range, text } => Some((range.clone(), text.as_str())),
+            Change::Whole(_) => None,
+        })))
+    }
+}
+
+/// Take up the first dirty document: its analysis (taken out, so it can be
+/// updated in place) and the changes queued after it. Without an analysis and
+/// without a queued whole text (an update that was lost), the rope's text is
+/// read whole.
+fn take_job(st: &mut State) -> Option<Job> {
+    let key = st.dirty.pop_first()?;
+    let unit = st.unit.unwrap_or(ColumnUnit::Utf16);
+    let d = st.docs.get_mut(&key)?;
+    let start = d.analysis.take().map(|t| t.analysis);
+    let mut changes: Vec<Change> = d.pending.drain(..).map(|p| p.change).collect();
+    if start.is_none() && !changes.iter().any(|c| matches!(c, Change::Whole(_))) {
+        // Sized once (`to_string` grows the string by doubling).
+        let mut text = String::with_capacity(d.rope.len_bytes());
+        for chunk in d.rope.chunks() {
+            text.push_str(chunk);
+        }
+        changes = vec![Change::Whole(text)];
+    }
+    Some(Job {
+        uri: d.uri.clone(),
+        seq: d.seq,
+        version: d.version,
+        key,
+        unit,
+        start,
+        changes,
+    })
+}
+
 /// Evaluate dirty documents and publish their diagnostics, newest version only.
-async fn worker(client: Client, state: Arc<Mutex<State>>, wake: Arc<Notify>) {
+async fn worker(client: Client, state: Arc<Mutex<State>>, wake: Arc<Notify>, gate: Option<Gate>) {
+    let lock = || state.lock().unwrap_or_else(|p| p.into_inner());
     loop {
         wake.notified().await;
         loop {
-            let job = {
-                let mut st = state.lock().unwrap_or_else(|p| p.into_inner());
-                let Some(key) = st.dirty.pop_first() else {
-                    break;
-                };
-                let unit = st.unit.unwrap_or(ColumnUnit::Utf16);
-                // The previous analysis (of an older version) is taken out to be
-                // updated: only what changed is parsed and computed again.
-                st.docs.get_mut(&key).map(|d| {
-                    let previous = d.analysis.take().map(|(_, a)| a).or(d.base.take());
-                    // Sized once (`to_string` grows the string by doubling,
-                    // which copied a large file several times per edit).
-                    let mut text = String::with_capacity(d.rope.len_bytes());
-                    for chunk in d.rope.chunks() {
-                        text.push_str(chunk);
-                    }
-                    (key, d.uri.clone(), text, d.version, unit, previous)
-                })
-            };
-            let Some((key, uri, text, version, unit, previous)) = job else {
+            if lock().dirty.is_empty() {
+                break;
+            }
+            if let Some(g) = &gate {
+                g.before_taking().await;
+            }
+            let Some(job) = take_job(&mut lock()) else {
                 continue;
             };
-            // Unshared unless a request is reading it right now.
-            let previous = previous.map(|p| Arc::try_unwrap(p).unwrap_or_else(|p| (*p).clone()));
-            let a = match previous {
+            if let Some(g) = &gate {
+                g.taken(job.changes.len());
+            }
+            let light = job.light();
+            let Job {
+                key,
+                uri,
+                seq,
+                version,
+                unit,
+                start,
+                changes,
+            } = job;
+            let a = if light {
                 // An update re-reads and recomputes only the blocks the edits
                 // touched (a fraction of a millisecond even in a 20,000-line
                 // file), so a small one runs right here, between two messages:
                 // sending it to the blocking pool and back cost more than the
                 // update itself (two thread switches).
-                Some(p) if light(&p, &text) => p.update(&text),
+                Job::run(start, changes)
+            } else {
                 // A first reading, or an update that may re-read a lot of text
                 // (a large block, a large paste): off the message loop.
-                previous => {
-                    let work = move || match previous {
-                        Some(p) => p.update(&text),
-                        None => Analysis::new(&text),
-                    };
-                    match tokio::task::spawn_blocking(work).await {
-                        Ok(a) => a,
-                        Err(_) => continue,
-                    }
+                match tokio::task::spawn_blocking(move || Job::run(start, changes)).await {
+                    Ok(a) => a,
+                    Err(_) => continue,
                 }
             };
-            let a = Arc::new(a);
+            if let Some(g) = &gate {
+                g.before_keeping().await;
+            }
             let current = {
-                let mut st = state.lock().unwrap_or_else(|p| p.into_inner());
+                let mut st = lock();
                 match st.docs.get_mut(&key) {
-                    Some(doc) if doc.version == version => {
-                        doc.analysis = Some((version, a.clone()));
-                        true
-                    }
-                    // A newer version arrived meanwhile: the next round updates
-                    // from this one.
+                    // Kept unless a request made a newer one meanwhile; when a
+                    // newer version arrived meanwhile, it is dirty again and the
+                    // next round updates from this one.
                     Some(doc) => {
-                        doc.base = Some(a.clone());
-                        false
+                        let current = doc.seq == seq;
+                        doc.keep(Tagged {
+                            seq,
+                            analysis: a.clone(),
+                        });
+                        current
                     }
                     None => false,
                 }
             };
-            // A newer version arrived meanwhile: it is dirty again and will be published.
+            if let Some(g) = &gate {
+                g.evaluated(current);
+            }
             if current {
                 let diags = a
                     .evaluation
@@ -191,20 +365,8 @@ async fn worker(client: Client, state: Arc<Mutex<State>>, wake: Arc<Notify>) {
     }
 }
 
-/// Most bytes an update may re-read on the message loop (see [`light`]).
+/// Most bytes an update may re-read on the message loop (see [`Job::light`]).
 const LIGHT_BYTES: usize = 64 * 1024;
-
-/// True when updating `previous` to `text` is bounded work: no top-level block
-/// of the previous text is over [`LIGHT_BYTES`] (an edit re-reads whole blocks)
-/// and the text grew or shrank by less than that.
-fn light(previous: &Analysis, text: &str) -> bool {
-    text.len().abs_diff(previous.source().len()) <= LIGHT_BYTES
-        && previous
-            .parsed
-            .blocks
-            .iter()
-            .all(|b| b.span.len() <= LIGHT_BYTES)
-}
 
 fn token_type(c: tokens::TokenClass) -> SemanticTokenType {
     use tokens::TokenClass as T;
@@ -326,16 +488,11 @@ impl LanguageServer for Server {
         let key = d.uri.as_str().to_string();
         {
             let mut st = self.lock();
-            st.docs.insert(
-                key.clone(),
-                Doc {
-                    uri: d.uri,
-                    rope: Rope::from_str(&d.text),
-                    version: d.version,
-                    analysis: None,
-                    base: None,
-                },
-            );
+            st.docs
+                .insert(key.clone(), Doc::new(d.uri, d.text, d.version));
+        }
+        if let Some(g) = &self.gate {
+            g.received();
         }
         self.mark_dirty(key);
     }
@@ -352,30 +509,48 @@ impl LanguageServer for Server {
                     // Work on a clone (cheap: ropes share their chunks) so a bad
                     // change leaves the document as it was.
                     let mut rope = doc.rope.clone();
+                    let mut changes = Vec::with_capacity(params.content_changes.len());
                     let mut result = Ok(());
-                    for c in &params.content_changes {
+                    for c in params.content_changes {
                         let range = c.range.map(|r| {
                             (
                                 (r.start.line, r.start.character),
                                 (r.end.line, r.end.character),
                             )
                         });
-                        if let Err(e) = apply_change(&mut rope, range, &c.text, unit) {
-                            result = Err(format!(
-                                "rejected an edit to {key} (version {}): {e}",
-                                params.text_document.version
-                            ));
-                            break;
+                        match apply_change(&mut rope, range, &c.text, unit) {
+                            Ok(Some(range)) => changes.push(Change::Edit {
+                                range,
+                                text: c.text,
+                            }),
+                            Ok(None) => changes.push(Change::Whole(c.text)),
+                            Err(e) => {
+                                result = Err(format!(
+                                    "rejected an edit to {key} (version {}): {e}",
+                                    params.text_document.version
+                                ));
+                                break;
+                            }
                         }
                     }
                     if result.is_ok() {
                         doc.rope = rope;
                         doc.version = params.text_document.version;
+                        for change in changes {
+                            doc.seq += 1;
+                            doc.pending.push(Pending {
+                                seq: doc.seq,
+                                change,
+                            });
+                        }
                     }
                     result
                 }
             }
         };
+        if let Some(g) = &self.gate {
+            g.received();
+        }
         match outcome {
             Ok(()) => self.mark_dirty(key),
             Err(msg) => {

@@ -270,6 +270,121 @@ pub fn ray_heights(
     (heights, y, nu)
 }
 
+/// The image one refracting element forms, placed along the axis.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct PlacedImage {
+    /// Axial position, metres from the first element; `None` at infinity.
+    pub at_m: Option<f64>,
+    /// Real (converging light) or virtual; `false` at infinity.
+    pub real: bool,
+    /// Height relative to the object's (the product of the magnifications so
+    /// far); `None` when undefined (object or an earlier image at infinity).
+    pub height: Option<f64>,
+}
+
+/// The chief ray of a finite object: from the object's tip (height 1 at the
+/// object) through the centre of the first element.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ChiefRay {
+    /// Height at each refracting element, in order (object height = 1).
+    pub heights: Vec<f64>,
+    /// Height just after the last element (at [`Layout::end_m`]).
+    pub exit_height: f64,
+    /// Slope after the last element, `u = n'u' / n'` (height per metre).
+    pub exit_slope: f64,
+}
+
+/// A system laid out along its axis: where each refracting element stands,
+/// its power, the image each forms and the chief ray, for a drawing of it.
+/// Heights are relative to the object's.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Layout {
+    /// Axial position of each refracting element, metres from the first
+    /// (the sum of the gap lengths before it).
+    pub positions: Vec<f64>,
+    /// Power of each refracting element, dioptres (a surface's `(n' − n)/r`
+    /// in the running index).
+    pub powers: Vec<f64>,
+    /// Axial position of the end of the element list (after its last gap).
+    pub end_m: f64,
+    /// The image formed by each refracting element ([`trace`]).
+    pub images: Vec<PlacedImage>,
+    /// The chief ray ([`ray_heights`]); `None` for an object at infinity.
+    pub chief_ray: Option<ChiefRay>,
+}
+
+/// Lay `elements` out along the axis for an object in air (index 1.0): positions
+/// by adding up gap lengths, images by [`trace`] (heights as the running
+/// product of the magnifications), the chief ray by [`ray_heights`] from the
+/// object's tip through the centre of the first element.
+pub fn layout(object: Object, elements: &[Element]) -> Layout {
+    let (mut z, mut n) = (0.0, 1.0);
+    let (mut positions, mut powers) = (Vec::new(), Vec::new());
+    for e in elements {
+        match *e {
+            Element::ThinLens { power } => {
+                positions.push(z);
+                powers.push(power);
+            }
+            Element::Surface {
+                radius_m,
+                index_after,
+            } => {
+                positions.push(z);
+                powers.push((index_after - n) / radius_m);
+                n = index_after;
+            }
+            Element::Gap { length_m, index } => {
+                z += length_m;
+                n = index;
+            }
+        }
+    }
+    let t = trace(object, elements, 1.0);
+    let mut height = Some(1.0);
+    let images = t
+        .steps
+        .iter()
+        .zip(&positions)
+        .map(|(step, x)| {
+            height = height.zip(step.magnification).map(|(h, m)| h * m);
+            match step.image {
+                ImagePlace::AtInfinity => PlacedImage {
+                    at_m: None,
+                    real: false,
+                    height,
+                },
+                ImagePlace::At {
+                    after_element_m,
+                    real,
+                } => PlacedImage {
+                    at_m: Some(x + after_element_m),
+                    real,
+                    height,
+                },
+            }
+        })
+        .collect();
+    let chief_ray = match object {
+        Object::Distance { before_first_m } if !positions.is_empty() => {
+            let (heights, y, nu) = ray_heights(elements, 0.0, -1.0 / before_first_m, 1.0);
+            Some(ChiefRay {
+                heights,
+                exit_height: y,
+                exit_slope: nu / n,
+            })
+        }
+        _ => None,
+    };
+    Layout {
+        positions,
+        powers,
+        end_m: z,
+        images,
+        chief_ray,
+    }
+}
+
 /// A 2×2 ray-transfer matrix acting on the column `(y, n·u)`:
 /// `y' = a·y + b·(n u)`, `(n'u') = c·y + d·(n u)`.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]

@@ -99,6 +99,20 @@ impl Unit {
         }
     }
 
+    /// Converts a value in this unit to the unit `to` of the same dimension
+    /// (through the base unit).
+    pub fn convert(self, v: f64, to: Unit) -> f64 {
+        to.from_base(self.to_base(v))
+    }
+
+    /// How many decimal places a value gains when converted from this unit to
+    /// `to`: the power of ten between them (mm → m: 3; m → cm: −2; 0 between
+    /// units of no fixed ratio of ten).
+    pub fn decimal_shift(self, to: Unit) -> i32 {
+        let ratio = self.to_base(1.0) / to.to_base(1.0);
+        -(ratio.log10().round() as i32)
+    }
+
     /// Every unit, in declaration order.
     pub fn all() -> &'static [Unit] {
         &ALL_UNITS

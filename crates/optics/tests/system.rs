@@ -4,7 +4,7 @@
 mod common;
 
 use parax_optics::system::{
-    cardinal_points, image_space_index, matrix_image, system_matrix, system_matrix_in,
+    cardinal_points, image_space_index, layout, matrix_image, system_matrix, system_matrix_in,
     system_powers, trace, transfer_vergence, Element, ImagePlace, Matrix2, Object,
 };
 
@@ -420,4 +420,52 @@ fn chief_ray_meets_every_image_tip() {
     let m = t.total_magnification.unwrap();
     assert_close!(y + nu * after_element_m, m, 1e-9);
     assert_close!(m, -0.384615, 1e-6);
+}
+
+#[test]
+fn layout_places_elements_images_and_the_chief_ray() {
+    // Invented bench: A +5 D, 0.2 m of air, then a surface r = +0.1 m into n = 1.5
+    // (power (1.5 − 1)/0.1 = +5 D [C] (n' − n)/r), object 0.4 m before A.
+    let els = [
+        Element::ThinLens { power: 5.0 },
+        Element::Gap {
+            length_m: 0.2,
+            index: 1.0,
+        },
+        Element::Surface {
+            radius_m: 0.1,
+            index_after: 1.5,
+        },
+    ];
+    let l = layout(
+        Object::Distance {
+            before_first_m: 0.4,
+        },
+        &els,
+    );
+    assert_eq!(l.positions, vec![0.0, 0.2]);
+    assert_close!(l.powers[1], 5.0, 1e-12);
+    assert_close!(l.end_m, 0.2, 1e-12);
+    // [C] step-along vergence: at A, L = −2.5, L' = +2.5: real image 0.4 m
+    // after A, m = L/L' = −1; at the surface L = 2.5/(1 − 0.2·2.5) = 5,
+    // L' = 10, image n'/L' = 0.15 m after it (z = 0.35), m = 5/10, height −0.5;
+    // tol 1e-12
+    assert_close!(l.images[0].at_m.unwrap(), 0.4, 1e-12);
+    assert_close!(l.images[0].height.unwrap(), -1.0, 1e-12);
+    assert!(l.images[1].real);
+    assert_close!(l.images[1].at_m.unwrap(), 0.35, 1e-12);
+    assert_close!(l.images[1].height.unwrap(), -0.5, 1e-12);
+    // [C] the chief ray: y = 0 at A, n·u = −2.5; at the surface y = 0.2·(−2.5)
+    // = −0.5, then n'u' = −2.5 + 0.5·5 = 0 (parallel to the axis), so it meets
+    // the final image at height −0.5 (every ray from the object's tip passes
+    // through the image's tip); tol 1e-12
+    let ray = l.chief_ray.expect("finite object");
+    assert_close!(ray.heights[0], 0.0, 1e-12);
+    assert_close!(ray.heights[1], -0.5, 1e-12);
+    assert_close!(ray.exit_height, -0.5, 1e-12);
+    assert_close!(ray.exit_slope, 0.0, 1e-12);
+    // An object at infinity: images placed, heights undefined, no chief ray.
+    let l = layout(Object::AtInfinity, &els);
+    assert_eq!(l.images[0].height, None);
+    assert!(l.chief_ray.is_none());
 }

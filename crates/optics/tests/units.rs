@@ -48,3 +48,15 @@ fn range_contains_bounds() {
     assert!(r.contains(-30.0) && r.contains(30.0) && r.contains(0.0));
     assert!(!r.contains(30.01) && !r.contains(f64::NAN));
 }
+
+#[test]
+fn conversion_between_lengths_and_its_decimal_shift() {
+    // [S] SI prefixes (BIPM SI Brochure, 9th ed., table 7): 1 cm = 10 mm, 1 m = 1000 mm.
+    assert_eq!(Unit::Millimetre.convert(12.5, Unit::Centimetre), 1.25);
+    assert_eq!(Unit::Centimetre.convert(1.25, Unit::Metre), 0.0125);
+    assert_eq!(Unit::Metre.convert(0.5, Unit::Millimetre), 500.0);
+    assert_eq!(Unit::Millimetre.decimal_shift(Unit::Metre), 3);
+    assert_eq!(Unit::Metre.decimal_shift(Unit::Centimetre), -2);
+    assert_eq!(Unit::Centimetre.decimal_shift(Unit::Millimetre), -1);
+    assert_eq!(Unit::Dioptre.decimal_shift(Unit::Dioptre), 0);
+}
