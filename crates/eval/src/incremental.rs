@@ -51,7 +51,8 @@ struct BlockMemo {
     /// The index in `case.blocks` of the model read from it (`None` for the
     /// `case` block and for a block whose header could not be read).
     model: Option<usize>,
-    /// For an eye block: the diagnostics of reading it.
+    /// For an eye block: the diagnostics of reading it, relative to `start`
+    /// (so they stay right wherever the block moves).
     diags: Vec<Diagnostic>,
     /// False when reading it gave a span outside the block (read it again).
     reusable: bool,
@@ -67,7 +68,8 @@ struct ValuesMemo {
     previous: Option<usize>,
     /// Its values in [`Evaluation::derived`].
     derived: Range<usize>,
-    /// Diagnostics of its computation and of its `expect` lines.
+    /// Diagnostics of its computation and of its `expect` lines, relative to
+    /// the start of `span` (so they stay right wherever the block moves).
     diags: Vec<Diagnostic>,
     expects: Vec<Diagnostic>,
     /// False when a span points outside the block (then moving it is not enough).
@@ -107,21 +109,26 @@ impl Memo {
     }
 }
 
-fn shift_diag(d: &mut Diagnostic, by: isize) {
+/// `d` with every span moved by `by` bytes.
+fn moved(d: &Diagnostic, by: isize) -> Diagnostic {
+    let mut d = d.clone();
     d.span = d.span.moved(by);
     if let Some(f) = &mut d.fix {
         for e in &mut f.edits {
             e.span = e.span.moved(by);
         }
     }
+    d
 }
 
-fn shifted(ds: &[Diagnostic], by: isize) -> impl Iterator<Item = Diagnostic> + '_ {
-    ds.iter().map(move |d| {
-        let mut d = d.clone();
-        shift_diag(&mut d, by);
-        d
-    })
+/// Diagnostics placed in the file, as a block starting at `start` keeps them.
+fn relative(ds: &[Diagnostic], start: usize) -> Vec<Diagnostic> {
+    ds.iter().map(|d| moved(d, -(start as isize))).collect()
+}
+
+/// Diagnostics a block starting at `start` keeps, placed in the file.
+fn placed(ds: &[Diagnostic], start: usize) -> impl Iterator<Item = Diagnostic> + '_ {
+    ds.iter().map(move |d| moved(d, start as isize))
 }
 
 fn inside(s: Span, block: Span) -> bool {
@@ -254,12 +261,12 @@ fn read_changed(
                 fresh.push(m);
             }
         }
+        let reusable = diags.iter().all(|d| diag_inside(d, b.span));
         let kept = if b.kind == BlockKind::Eye {
-            diags.clone()
+            relative(&diags, b.span.start())
         } else {
             Vec::new()
         };
-        let reusable = kept.iter().all(|d| diag_inside(d, b.span));
         memos.push(BlockMemo {
             text: parsed.text(b.span).to_owned(),
             start: b.span.start(),
@@ -294,7 +301,7 @@ fn read_unchanged(
         let memo = &blocks[k];
         match b.kind {
             BlockKind::Eye => {
-                diagnostics.extend(memo.diags.iter().cloned());
+                diagnostics.extend(placed(&memo.diags, b.span.start()));
                 if k >= mid.end && delta != 0 {
                     if let Some(Block::Eye(e)) = memo.model.map(|m| &mut case.blocks[m]) {
                         e.move_spans(delta);
@@ -350,10 +357,10 @@ fn finish(
     diagnostics: &mut Vec<Diagnostic>,
 ) -> Vec<usize> {
     for m in values {
-        diagnostics.extend(m.diags.iter().cloned());
+        diagnostics.extend(placed(&m.diags, m.span.start()));
     }
     for m in values {
-        diagnostics.extend(m.expects.iter().cloned());
+        diagnostics.extend(placed(&m.expects, m.span.start()));
     }
     diagnostics.sort_by_key(|d| (d.span.start, d.severity));
     let mut loose: Vec<usize> = values
@@ -468,9 +475,6 @@ fn evaluate_with(
     for b in &mut old_blocks[new_mid.end..] {
         b.start = b.start.wrapping_add_signed(delta);
         b.model = b.model.map(|m| m.wrapping_add_signed(shift));
-        for d in &mut b.diags {
-            shift_diag(d, delta);
-        }
     }
     let blocks = old_blocks;
 
@@ -561,7 +565,8 @@ fn evaluate_with(
 }
 
 /// Compute block `i` onto the end of `out`: the diagnostics of computing it and
-/// of its `expect` lines, and whether every span stays inside `span`.
+/// of its `expect` lines, relative to the start of `span` (the block's), and
+/// whether every span stays inside `span`.
 fn compute_into(
     cx: &Context<'_>,
     visits: &Visits<'_>,
@@ -576,7 +581,8 @@ fn compute_into(
     compute::block_step(cx, visits, i, explain, out, &mut diags, Some(&mut expects));
     let reusable = out[start..].iter().all(|d| inside(d.span, span))
         && diags.iter().chain(&expects).all(|d| diag_inside(d, span));
-    (diags, expects, reusable)
+    let at = span.start();
+    (relative(&diags, at), relative(&expects, at), reusable)
 }
 
 /// Old values and their memos, handed back when [`in_place`] cannot be used.
@@ -633,9 +639,6 @@ fn in_place(
             m.span = m.span.moved(delta);
             for d in &mut derived[m.derived.clone()] {
                 d.span = d.span.moved(delta);
-            }
-            for d in m.diags.iter_mut().chain(&mut m.expects) {
-                shift_diag(d, delta);
             }
         }
     }
@@ -714,8 +717,8 @@ fn rebuild(
                     partner,
                     previous,
                     derived: start..derived.len(),
-                    diags: shifted(&m.diags, by).collect(),
-                    expects: shifted(&m.expects, by).collect(),
+                    diags: m.diags.clone(),
+                    expects: m.expects.clone(),
                     reusable: true,
                 }
             }
@@ -764,7 +767,7 @@ fn share_expects(case: &Case, derived: &[Derived], memos: &mut [ValuesMemo]) {
         for i in list {
             let mut expects = Vec::new();
             expect::check(&id, case.blocks[i].expects(), &all, &mut expects);
-            memos[i].expects = expects;
+            memos[i].expects = relative(&expects, memos[i].span.start());
         }
     }
 }
