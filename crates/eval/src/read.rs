@@ -241,6 +241,23 @@ impl<'a> Reader<'a> {
     }
 
     /// A physical quantity in base units, checked for unit and plausibility.
+    /// Read a radius of curvature with `spec`, refusing 0: a radius of 0 has no
+    /// centre of curvature and would make the surface power infinite (a value
+    /// that then reaches every derived value as infinity or NaN).
+    pub fn radius(&mut self, spec: &QuantitySpec, form: &str) -> Option<f64> {
+        let span = self.peek().map(|v| v.span);
+        let radius = self.quantity(spec, form)?;
+        if radius == 0.0 {
+            let span = span.expect("a quantity was read");
+            return self.fail(
+                span,
+                format!("a {} of 0 has no centre of curvature", spec.what),
+                form,
+            );
+        }
+        Some(radius)
+    }
+
     pub fn quantity(&mut self, spec: &QuantitySpec, form: &str) -> Option<f64> {
         let v = match self.next_value() {
             Some(v) => v,

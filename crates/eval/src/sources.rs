@@ -58,7 +58,7 @@ source!(TILT_MATRIX, "C", "tilted thin spherocylinders: Martin's formula (Brooks
 source!(OC_DROP, "CP", "lower the optical centre about 0.5 mm per degree of pantoscopic tilt (common practice, no source)");
 source!(PRENTICE, "S", "Prentice's rule P = c·F, vector form with the dioptric power matrix: Keating, Geometric, Physical, and Visual Optics, 2nd ed. 2002");
 source!(PRISM_TOLERANCE, "CP", "about 1Δ vertical and 3Δ horizontal before symptoms; slab-off worth considering above about 1.5Δ vertical at the reading point (Optician CPD article; common practice)");
-source!(SAG, "S", "exact sag s = r − √(r² − y²), edge = centre + s_back − s_front: J. Loomis, Univ. of Dayton course notes \"Sags and Edge Thickness\"");
+source!(SAG, "S", "exact sag s = r − √(r² − y²), edge = centre + s_back − s_front: J. Loomis, University of Dayton, \"Sags and Edge Thickness\"");
 source!(BLANK_SIZE, "CP", "decentration from the boxed centre (boxed system, ISO 13666 terms) and minimum blank size = effective diameter + 2 × decentration (common practice, no source)");
 source!(MATERIAL_TABLE, "CP", "indices and minimum thicknesses of common lens materials as catalogues and laboratories quote them (common practice, no single source)");
 source!(MOUNTED_PAIR, "S", "ANSI Z80.1-2015, mounted pair: vertical imbalance 0.33Δ up to 3.375 D, horizontal 0.67Δ up to 2.75 D; above 2.75 D the centre distance within ±2.5 mm of the specified PD (quick reference guide of the standard)");

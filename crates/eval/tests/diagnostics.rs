@@ -161,3 +161,22 @@ fn syntax_codes_agree_with_the_code_table() {
         assert_eq!(syn, table.as_str());
     }
 }
+
+#[test]
+fn a_surface_radius_of_zero_is_refused_and_yields_no_infinite_power() {
+    // A radius of 0 has no centre of curvature; read as a number it made the
+    // surface power (n' − n)/r infinite and every value after it NaN.
+    let src = "model-eye \"m\"\n  from le-grand\n  surface 1 radius 0 mm\n";
+    let (l, c, d) = only(src, "P0102");
+    assert_eq!((l, c), (3, 20));
+    assert!(d.message.contains("of 0"), "{}", d.message);
+    let (_, ev) = evaluate_source(src);
+    assert!(ev
+        .derived
+        .iter()
+        .all(|v| !format!("{:?}", v.value).contains("NaN")
+            && !format!("{:?}", v.value).contains("inf")));
+    let src = "system \"s\"\n  surface S1 0 mm index 1.5\n";
+    let (l, c, _) = only(src, "P0102");
+    assert_eq!((l, c), (2, 14));
+}

@@ -83,7 +83,7 @@ fn prentice_checks() {
 
 #[test]
 fn sag_and_edge_checks() {
-    // [S] J. Loomis, Univ. of Dayton course notes "Sags and Edge Thickness": curvatures 0.0104227
+    // [S] J. Loomis, University of Dayton, "Sags and Edge Thickness": curvatures 0.0104227
     // and -0.0406946 1/mm, semi-aperture 9 mm, centre 3.0486 mm -> edge 0.918096 mm; tol 1e-5 mm
     let e = edge_from_centre(3.0486, 1.0 / 0.0104227, -1.0 / 0.0406946, 9.0).unwrap();
     assert_close!(e, 0.918096, 1e-5);

@@ -114,7 +114,7 @@ fn read_surface_override(r: &mut Reader<'_>, form: &str) -> Option<SurfaceOverri
     if !r.word_if("radius") {
         return r.missing("`radius RADIUS mm`", form);
     }
-    let radius = r.quantity(&u::SURFACE_RADIUS, form)?;
+    let radius = r.radius(&u::SURFACE_RADIUS, form)?;
     let mut o = SurfaceOverride {
         number: n as usize,
         radius,

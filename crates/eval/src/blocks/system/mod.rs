@@ -255,7 +255,7 @@ pub(crate) static KEYWORDS: &[Keyword<System>] = &[
         "a refracting surface",
         |r, s, span, form| {
             let label = r.word("a surface label", form);
-            let radius = r.quantity(&u::SURFACE_RADIUS, form);
+            let radius = r.radius(&u::SURFACE_RADIUS, form);
             let index = if r.word_if("index") {
                 r.quantity(&u::INDEX, form)
             } else {
