@@ -15,6 +15,9 @@ const PIECES: &[&str] = &[
     "",
     "\n",
     "\r\n",
+    // A lone CR is a line break too; it can join a `\n` after it into one.
+    "\r",
+    "\u{2029}",
     "  ",
     "\t",
     "eye right\n",
