@@ -289,14 +289,16 @@ impl Parsed {
 }
 
 /// What [`group_blocks`] makes of a line that is not an error: a header of
-/// some kind, a line that extends the open block, or one that it skips.
+/// some kind, a statement, an indented comment (both extend the open block, but
+/// a statement with no block open becomes an error, a comment does not), or a
+/// line that it skips.
 fn grouping(line: &Line) -> Option<(u8, Option<BlockKind>)> {
     let top = line.indent == 0;
     match &line.kind {
         LineKind::Header { block, .. } => Some((0, Some(*block))),
         LineKind::Statement { .. } => Some((1, None)),
         LineKind::Trivia if top || line.comment.is_none() => Some((2, None)),
-        LineKind::Trivia => Some((1, None)),
+        LineKind::Trivia => Some((3, None)),
         LineKind::Error { .. } => None,
     }
 }
