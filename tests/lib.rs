@@ -52,10 +52,13 @@ pub fn kept_text(text: &str) -> Vec<String> {
         .collect()
 }
 
+/// Diagnostics as (code, message) and derived values as (key, value text).
+pub type Meaning = (Vec<(String, String)>, Vec<(String, String)>);
+
 /// The evaluation of a text, spans aside: diagnostics as (code, message) and
 /// derived values as (key, value text), in order; a message's spaces and tabs
 /// are left out.
-pub fn meaning(parsed: &Parsed) -> (Vec<(String, String)>, Vec<(String, String)>) {
+pub fn meaning(parsed: &Parsed) -> Meaning {
     let ev = parax_eval::evaluate(parsed);
     let diagnostics = ev
         .diagnostics

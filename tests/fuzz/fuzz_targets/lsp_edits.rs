@@ -18,11 +18,36 @@ use ropey::Rope;
 /// Pieces an edit inserts: line structure, every line break and separator,
 /// tokens of the notation, and things the grammar rejects.
 const PIECES: &[&str] = &[
-    "", "\n", "\r\n", "\r", "\u{2028}", "\u{2029}", "\u{85}", "\u{b}", "\u{c}", "  ", "\t",
-    "eye right\n", "case \"c\"\n", "system \"s\"\n  lens L1 +5 D\n",
-    "  refraction -1.25 / -0.50 x 90 @ 12 mm\n", "  add +2.00", "  vertex 12 mm",
-    "  keratometry 7.8 mm x 180, 7.6 mm x 90", "# note", "\"", "x", "°", "Δ", "é", "😀", "$",
-    "1", ".", "-", "expect ",
+    "",
+    "\n",
+    "\r\n",
+    "\r",
+    "\u{2028}",
+    "\u{2029}",
+    "\u{85}",
+    "\u{b}",
+    "\u{c}",
+    "  ",
+    "\t",
+    "eye right\n",
+    "case \"c\"\n",
+    "system \"s\"\n  lens L1 +5 D\n",
+    "  refraction -1.25 / -0.50 x 90 @ 12 mm\n",
+    "  add +2.00",
+    "  vertex 12 mm",
+    "  keratometry 7.8 mm x 180, 7.6 mm x 90",
+    "# note",
+    "\"",
+    "x",
+    "°",
+    "Δ",
+    "é",
+    "😀",
+    "$",
+    "1",
+    ".",
+    "-",
+    "expect ",
 ];
 
 /// One edit: a range (start and end line/column in `unit`) and its new text.
@@ -48,12 +73,31 @@ fn edit(u: &mut Unstructured<'_>, index: &LineIndex) -> Result<(LinePos, LinePos
 /// The first part in which two analyses differ, if any.
 fn difference(a: &Analysis, b: &Analysis) -> Option<&'static str> {
     let parts = [
-        ("syntax tree", format!("{:?}", a.parsed), format!("{:?}", b.parsed)),
-        ("case model", format!("{:?}", a.evaluation.case), format!("{:?}", b.evaluation.case)),
-        ("derived values", format!("{:?}", a.evaluation.derived), format!("{:?}", b.evaluation.derived)),
-        ("diagnostics", format!("{:?}", a.evaluation.diagnostics), format!("{:?}", b.evaluation.diagnostics)),
+        (
+            "syntax tree",
+            format!("{:?}", a.parsed),
+            format!("{:?}", b.parsed),
+        ),
+        (
+            "case model",
+            format!("{:?}", a.evaluation.case),
+            format!("{:?}", b.evaluation.case),
+        ),
+        (
+            "derived values",
+            format!("{:?}", a.evaluation.derived),
+            format!("{:?}", b.evaluation.derived),
+        ),
+        (
+            "diagnostics",
+            format!("{:?}", a.evaluation.diagnostics),
+            format!("{:?}", b.evaluation.diagnostics),
+        ),
     ];
-    parts.into_iter().find(|(_, x, y)| x != y).map(|(what, _, _)| what)
+    parts
+        .into_iter()
+        .find(|(_, x, y)| x != y)
+        .map(|(what, _, _)| what)
 }
 
 fn run(data: &[u8]) -> Result<()> {
@@ -66,7 +110,11 @@ fn run(data: &[u8]) -> Result<()> {
         if u.is_empty() {
             break;
         }
-        let unit = if u.arbitrary()? { ColumnUnit::Utf16 } else { ColumnUnit::Utf8 };
+        let unit = if u.arbitrary()? {
+            ColumnUnit::Utf16
+        } else {
+            ColumnUnit::Utf8
+        };
         let (start, end, insert) = edit(&mut u, &analysis.parsed.index)?;
         let text = if u.arbitrary()? {
             // As the server does: the rope, strictly.

@@ -22,7 +22,10 @@ fuzz_target!(|data: &[u8]| {
         if i == 0 {
             assert_eq!(gap, "");
         } else {
-            assert!(matches!(gap, "\n" | "\r\n" | "\r"), "line {i} after {gap:?}");
+            assert!(
+                matches!(gap, "\n" | "\r\n" | "\r"),
+                "line {i} after {gap:?}"
+            );
         }
         at = line.span.end();
     }
