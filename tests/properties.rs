@@ -334,3 +334,67 @@ fn fmt_keeps_unreadable_lines_unreadable() {
         assert_eq!(content(&once), content(src), "{src:?} -> {once:?}");
     }
 }
+
+/// Inputs with every separator the notation does not treat as white space, and
+/// the three line breaks, spliced into notation-shaped text.
+fn input_with_separators() -> impl Strategy<Value = String> {
+    const SEPARATORS: &[&str] = &[
+        "\r", "\r\n", "\n", "\u{b}", "\u{c}", "\u{85}", "\u{2028}", "\u{2029}", "\u{a0}", " ", "\t",
+    ];
+    (
+        input(),
+        prop::collection::vec(
+            (
+                any::<prop::sample::Index>(),
+                prop::sample::select(SEPARATORS),
+            ),
+            0..6,
+        ),
+    )
+        .prop_map(|(mut text, inserts)| {
+            for (at, sep) in inserts {
+                let mut i = at.index(text.len() + 1);
+                while !text.is_char_boundary(i) {
+                    i -= 1;
+                }
+                text.insert_str(i, sep);
+            }
+            text
+        })
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig {
+        cases: 256,
+        failure_persistence: Some(Box::new(FileFailurePersistence::WithSource("regressions"))),
+        ..ProptestConfig::default()
+    })]
+
+    /// The invariants the `format` fuzz target asserts (`parax_tests::check_format`):
+    /// the reader's lines are the line-break rule's, and formatting is idempotent,
+    /// keeps every character but spaces and tabs on its line, and keeps the
+    /// evaluation.
+    #[test]
+    fn fmt_keeps_characters_lines_and_meaning(src in input_with_separators()) {
+        if let Err(e) = parax_tests::check_format(&src) {
+            return Err(TestCaseError::fail(e));
+        }
+    }
+}
+
+#[test]
+fn fmt_keeps_characters_lines_and_meaning_on_fixtures_and_examples() {
+    for path in all_case_files() {
+        let source = read(&path);
+        parax_tests::check_format(&source).unwrap_or_else(|e| panic!("{}: {e}", path.display()));
+        // With each separator appended to every line: kept where it stands.
+        for sep in ["\u{b}", "\u{c}", "\u{85}", "\u{2028}", "\u{2029}"] {
+            let mutated = source.replace('\n', &format!("{sep}\n"));
+            parax_tests::check_format(&mutated)
+                .unwrap_or_else(|e| panic!("{}: {e}", path.display()));
+        }
+        // Every line break a lone CR.
+        let cr = source.replace("\r\n", "\n").replace('\n', "\r");
+        parax_tests::check_format(&cr).unwrap_or_else(|e| panic!("{}: {e}", path.display()));
+    }
+}

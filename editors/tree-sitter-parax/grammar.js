@@ -53,10 +53,12 @@ module.exports = grammar({
 
     _line: $ => choice($.header, $.statement, $._trivia),
 
-    _newline: _ => /\r?\n/,
+    // A line break: `\n`, `\r\n` or a lone `\r`, as in pest and the Language
+    // Server Protocol; every other separator is an ordinary character.
+    _newline: _ => /\r?\n|\r/,
 
-    // Spaces and tabs; a carriage return not before a line feed counts too.
-    _ws: _ => /[ \t\r]+/,
+    // Spaces and tabs.
+    _ws: _ => /[ \t]+/,
 
     // A blank or comment-only line, at any indentation.
     _trivia: $ => choice(seq($._ws, optional($.comment)), $.comment),
@@ -78,9 +80,8 @@ module.exports = grammar({
       optional($.comment),
     ),
 
-    // To the line break; a carriage return not before a line feed is text, as in
-    // pest (a run of carriage returns just before the line break is left out).
-    comment: _ => token(seq('#', /([^\r\n]|\r+[^\r\n])*/)),
+    // To the line break.
+    comment: _ => token(seq('#', /[^\r\n]*/)),
 
     block_kind: _ => choice(
       'case', 'eye', 'frame', 'spectacle-lens', 'contact-lens', 'system', 'model-eye',
@@ -112,7 +113,7 @@ module.exports = grammar({
 
     // No line feed can stand inside, so every carriage return inside is a lone
     // one, which pest reads as text (and as the character after a backslash).
-    string: _ => /"([^"\\\n]|\\[^\n])*"/,
+    string: _ => /"([^"\\\r\n]|\\[^\r\n])*"/,
 
     /** The axis sign of a cylinder, `x` or `×`, written before the axis. */
     axis_sign: _ => choice('x', '×'),

@@ -4,13 +4,21 @@
 //! indented comments at two spaces, single spaces between values (none before `,`,
 //! none between a number and `°`, `Δ` or `%`), two spaces before a trailing comment
 //! (no column alignment, so one edit never re-aligns its neighbours), one blank line
-//! between blocks, no trailing white space, one final line break. The line-break
-//! style (LF or CRLF) of the first line is kept.
+//! between blocks, no trailing spaces or tabs, one final line break. The
+//! line-break style of the first line break (LF, CRLF or a lone CR) is kept.
+//! White space here is the space and the tab; line breaks are `\n`, `\r\n` and a
+//! lone `\r`, as the reader reads them. Every other separator (VT, FF, NEL,
+//! U+2028, U+2029, a no-break space) is an ordinary character and is kept where it
+//! stands, also at the end of a line or of a comment.
 
 use crate::tree::{Line, LineKind, Parsed, Statement, ValueKind};
 
 /// Indentation of statements and indented comments.
 pub const INDENT: &str = "  ";
+
+/// The white space the formatter may add, remove or change: the space and the
+/// tab (the grammar's `blank`). Line breaks are not in a line's text at all.
+const BLANKS: [char; 2] = [' ', '\t'];
 
 /// Format a whole file. Idempotent: formatting the result again returns it unchanged.
 pub fn format(parsed: &Parsed) -> String {
@@ -18,16 +26,11 @@ pub fn format(parsed: &Parsed) -> String {
         // Not read (too large for 32-bit offsets): left exactly as it is.
         return parsed.source.clone();
     }
-    let eol = if parsed
-        .source
-        .split('\n')
-        .next()
-        .is_some_and(|l| l.ends_with('\r'))
-        && parsed.source.contains('\n')
-    {
-        "\r\n"
-    } else {
-        "\n"
+    let src = &parsed.source;
+    let eol = match src.find(['\n', '\r']) {
+        Some(i) if src[i..].starts_with("\r\n") => "\r\n",
+        Some(i) if src[i..].starts_with('\r') => "\r",
+        _ => "\n",
     };
     let mut out = String::with_capacity(parsed.source.len() + 16);
     // What the last emitted line was: None at file start.
@@ -71,16 +74,15 @@ enum Emitted {
 
 /// The canonical text of one line (without line break); empty for a blank line.
 pub fn format_line(parsed: &Parsed, line: &Line) -> String {
-    let comment = line.comment.map(|c| parsed.text(c).trim_end());
+    let comment = line
+        .comment
+        .map(|c| parsed.text(c).trim_end_matches(BLANKS));
     let mut out = String::new();
     match &line.kind {
-        // Only trailing spaces, tabs and carriage returns are trimmed: any other character may be what made the
-        // line unreadable, and the formatter never changes meaning.
+        // Only trailing spaces and tabs are trimmed: any other character may be
+        // what made the line unreadable, and the formatter never changes meaning.
         LineKind::Error { .. } => {
-            return parsed
-                .text(line.span)
-                .trim_end_matches([' ', '\t', '\r'])
-                .to_owned()
+            return parsed.text(line.span).trim_end_matches(BLANKS).to_owned()
         }
         LineKind::Trivia => {
             if let Some(c) = comment {
@@ -149,6 +151,62 @@ mod tests {
         let got = format(&parse(src));
         assert_eq!(got, want);
         assert_eq!(format(&parse(&got)), got);
+    }
+
+    /// Found by a mutation run: a separator at the end of a comment was trimmed
+    /// as white space. Only spaces and tabs are white space to the formatter.
+    #[test]
+    fn keeps_other_separators_at_line_ends() {
+        for sep in ["\u{b}", "\u{c}", "\u{85}", "\u{2028}", "\u{2029}", "\u{a0}"] {
+            for (src, want) in [
+                (
+                    format!("eye right  # c{sep}\n"),
+                    format!("eye right  # c{sep}\n"),
+                ),
+                (
+                    format!("# top{sep}\neye right\n"),
+                    format!("# top{sep}\neye right\n"),
+                ),
+                (
+                    format!("eye right\n  # c{sep} \n"),
+                    format!("eye right\n  # c{sep}\n"),
+                ),
+                // Not white space inside a line either: the line is unreadable, kept.
+                (
+                    format!("eye right\n  add +1.00{sep}\n"),
+                    format!("eye right\n  add +1.00{sep}\n"),
+                ),
+            ] {
+                assert_eq!(format(&parse(&src)), want, "{src:?}");
+            }
+        }
+    }
+
+    /// Found by a mutation run: a lone CR was read as white space inside a line,
+    /// so `eye\rright` (two lines to an editor) became `eye right`, and the `#`
+    /// of `eye\r#` was put after the header. A lone CR is a line break.
+    #[test]
+    fn a_lone_cr_is_a_line_break() {
+        let p = parse("eye\rright");
+        assert_eq!(p.lines.len(), 2);
+        assert_eq!(p.text(p.lines[1].span), "right");
+        for (src, want) in [
+            ("eye\rright", "eye\rright\r"),
+            ("eye\r#", "eye\r#\r"),
+            ("eye right\r  add\r+1.00\r", "eye right\r  add\r+1.00\r"),
+            (
+                "eye right\r\r\r  add +1.00   \r",
+                "eye right\r\r  add +1.00\r",
+            ),
+            // The first line break sets the style, every line break counts.
+            (
+                "eye right\n  add +1.00\r  vertex 12 mm\r\n",
+                "eye right\n  add +1.00\n  vertex 12 mm\n",
+            ),
+            ("case\r\n  note \"a\rb\"\n", "case\r\n  note \"a\r\nb\"\r\n"),
+        ] {
+            assert_eq!(format(&parse(src)), want, "{src:?}");
+        }
     }
 
     #[test]

@@ -22,8 +22,11 @@ pub struct LinePos {
     pub col: u32,
 }
 
-/// Line starts of one text, for offset ↔ position conversion. A line ends at `\n`;
-/// a `\r` before it is part of the line break, never of a column.
+/// Line starts of one text, for offset ↔ position conversion. A line ends at a
+/// line break: `\n`, `\r\n` or a lone `\r` (what the Language Server Protocol
+/// says clients use; the grammar and the formatter read the same three). A line
+/// break is never a column. Every other separator (VT, FF, NEL, U+2028, U+2029)
+/// is an ordinary character of its line.
 #[derive(Debug, Clone)]
 pub struct LineIndex {
     starts: Vec<usize>,
@@ -35,36 +38,42 @@ impl LineIndex {
     pub fn new(text: &str) -> Self {
         let mut starts = Vec::with_capacity(text.len() / 32 + 1);
         starts.push(0);
-        starts.extend(memchr_newlines(text.as_bytes()).map(|i| i + 1));
+        starts.extend(line_starts(text.as_bytes(), 1..text.len() + 1));
         LineIndex {
             starts,
             len: text.len(),
         }
     }
 
-    /// Update the index for an edit of the indexed text: the bytes `edit` were
-    /// replaced by `new_text`. Only `new_text` is scanned; the line starts before
-    /// the edit are kept and those after it are moved, so the result equals
-    /// [`LineIndex::new`] of the edited text without reading all of it (the
-    /// incremental re-parse uses this). `edit` must lie inside the old text.
-    pub fn edit(&mut self, edit: std::ops::Range<usize>, new_text: &str) {
-        let delta = new_text.len() as isize - edit.len() as isize;
-        // A start `s` follows the `\n` at `s - 1`: those at or before the edit's
-        // start stay, those whose `\n` lay inside the edit go, the rest move.
-        let keep = self.starts.partition_point(|&s| s <= edit.start);
+    /// Update the index for an edit of the indexed text: the bytes `edit` of the
+    /// old text were replaced by `inserted` bytes, giving `edited`. Only the
+    /// inserted bytes and the one byte on each side are looked at (an edit can
+    /// join a `\r` and a `\n` into one line break, or split one); the line starts
+    /// before the edit are kept and those after it are moved, so the result equals
+    /// [`LineIndex::new`] of `edited` without reading all of it (the incremental
+    /// re-parse uses this). `edit` must lie inside the old text.
+    pub fn edit(&mut self, edited: &str, edit: std::ops::Range<usize>, inserted: usize) {
+        let delta = inserted as isize - edit.len() as isize;
+        let new_end = edit.start + inserted;
+        // Whether `s` starts a line depends on the bytes at `s - 1` and `s`: the
+        // starts before the edit's start and after its end keep their reading
+        // (those after move by `delta`); the ones in between are read again.
+        let keep = self.starts.partition_point(|&s| s < edit.start.max(1));
         let tail = self.starts.partition_point(|&s| s <= edit.end).max(keep);
-        let added = memchr_newlines(new_text.as_bytes()).map(|i| edit.start + i + 1);
+        let from = edit.start.max(1);
+        let added: Vec<usize> = line_starts(edited.as_bytes(), from..new_end + 1).collect();
+        let moved = keep + added.len();
         self.starts.splice(keep..tail, added);
-        let moved = keep + new_text.bytes().filter(|&b| b == b'\n').count();
         if delta != 0 {
             for s in &mut self.starts[moved..] {
                 *s = s.wrapping_add_signed(delta);
             }
         }
-        self.len = self.len.wrapping_add_signed(delta);
+        self.len = edited.len();
     }
 
-    /// Number of lines (a final line without `\n` counts; an empty text has one line).
+    /// Number of lines (a final line without a line break counts; an empty text
+    /// has one line).
     pub fn line_count(&self) -> usize {
         self.starts.len()
     }
@@ -74,7 +83,7 @@ impl LineIndex {
         self.starts.get(line).copied().unwrap_or(self.len)
     }
 
-    /// Byte range of 0-based `line` without its line break (`\n` or `\r\n`).
+    /// Byte range of 0-based `line` without its line break (`\n`, `\r\n` or `\r`).
     pub fn line_span(&self, text: &str, line: usize) -> crate::Span {
         let start = self.line_start(line);
         let mut end = self
@@ -83,7 +92,8 @@ impl LineIndex {
             .map(|s| s - 1)
             .unwrap_or(self.len)
             .max(start);
-        if end > start && text.as_bytes().get(end - 1) == Some(&b'\r') {
+        let bytes = text.as_bytes();
+        if end > start && bytes.get(end) == Some(&b'\n') && bytes.get(end - 1) == Some(&b'\r') {
             end -= 1;
         }
         crate::Span::new(start, end)
@@ -149,12 +159,16 @@ impl LineIndex {
     }
 }
 
-/// Offsets of every `\n`. Hand-written rather than a dependency: one byte search.
-fn memchr_newlines(bytes: &[u8]) -> impl Iterator<Item = usize> + '_ {
-    bytes
-        .iter()
-        .enumerate()
-        .filter_map(|(i, b)| (*b == b'\n').then_some(i))
+/// The line starts `s` in `range` (each `1..=bytes.len()`): `s` follows a `\n`,
+/// or a `\r` that is not the first half of a `\r\n`. Hand-written rather than a
+/// dependency: one pass over the bytes.
+fn line_starts(bytes: &[u8], range: std::ops::Range<usize>) -> impl Iterator<Item = usize> + '_ {
+    let range = range.start.max(1)..range.end.min(bytes.len() + 1);
+    range.filter(move |&s| match bytes[s - 1] {
+        b'\n' => true,
+        b'\r' => bytes.get(s) != Some(&b'\n'),
+        _ => false,
+    })
 }
 
 #[cfg(test)]
@@ -163,17 +177,17 @@ mod tests {
 
     #[test]
     fn an_edited_index_equals_a_new_one() {
-        let text = "eye right\n  add +1.00\r\n\n  note \"Zoë\"\n";
+        let text = "eye right\n  add +1.00\r\n\n  note \"Zoë\"\r\r x\n";
         for start in 0..=text.len() {
             for end in start..=text.len() {
                 if !text.is_char_boundary(start) || !text.is_char_boundary(end) {
                     continue;
                 }
-                for insert in ["", "x", "\n", "a\nb\n", "\r\n\n"] {
+                for insert in ["", "x", "\n", "\r", "a\nb\n", "\r\n\n", "\n\r"] {
                     let mut edited = text.to_owned();
                     edited.replace_range(start..end, insert);
                     let mut idx = LineIndex::new(text);
-                    idx.edit(start..end, insert);
+                    idx.edit(&edited, start..end, insert.len());
                     let fresh = LineIndex::new(&edited);
                     assert_eq!((idx.starts, idx.len), (fresh.starts, fresh.len));
                 }
@@ -196,6 +210,28 @@ mod tests {
         // `\r` of a CRLF is not a column: end of line 2 is after "175".
         let end2 = idx.line_span(text, 1).end();
         assert_eq!(&text[end2..end2 + 2], "\r\n");
+    }
+
+    /// `\n`, `\r\n` and a lone `\r` end a line; other separators do not.
+    #[test]
+    fn three_line_breaks_and_no_others() {
+        let text = "a\rb\r\nc\nd\u{2028}e\u{2029}f\u{85}g\u{b}h\u{c}i\r";
+        let idx = LineIndex::new(text);
+        let lines: Vec<&str> = (0..idx.line_count())
+            .map(|l| {
+                let s = idx.line_span(text, l);
+                &text[s.start()..s.end()]
+            })
+            .collect();
+        assert_eq!(
+            lines,
+            ["a", "b", "c", "d\u{2028}e\u{2029}f\u{85}g\u{b}h\u{c}i", ""]
+        );
+        let d = text.find('d').unwrap();
+        assert_eq!(
+            idx.position(text, d + 4, ColumnUnit::Utf16),
+            LinePos { line: 3, col: 2 }
+        );
     }
 
     #[test]

@@ -78,9 +78,8 @@ fn parse_lines(
     errors: &mut Vec<SyntaxError>,
 ) {
     let start = index.line_start(range.start);
-    // The last chunk runs to the end of the text, as a whole-file pass would read
-    // it (a lone `\r` at the very end belongs to the last line); any other chunk
-    // stops before its last line break.
+    // The last chunk runs to the end of the text; any other chunk stops before
+    // its last line break.
     let end = if range.end == index.line_count() {
         source.len()
     } else {
@@ -202,11 +201,6 @@ impl Parsed {
         source.push_str(&old_src[..edit.start]);
         source.push_str(new_text);
         source.push_str(&old_src[edit.end..]);
-        // A lone `\r` at the very end reads differently whole-file (part of the last
-        // line) and line by line (cut off with the line break): keep it simple.
-        if source.ends_with('\r') || old_src.ends_with('\r') {
-            return parse(&source);
-        }
         let Parsed {
             lines: mut old_lines,
             errors: old_errors,
@@ -218,7 +212,7 @@ impl Parsed {
         let first = old_index.line_of(edit.start);
         let last = old_index.line_of(edit.end);
         let mut index = old_index;
-        index.edit(edit.clone(), new_text);
+        index.edit(&source, edit.clone(), new_text.len());
         let new_last = index.line_of(edit.start + new_text.len());
         let delta = new_text.len() as isize - edit.len() as isize;
         let mut errors = Vec::new();
@@ -295,14 +289,16 @@ impl Parsed {
 }
 
 /// What [`group_blocks`] makes of a line that is not an error: a header of
-/// some kind, a line that extends the open block, or one that it skips.
+/// some kind, a statement, an indented comment (both extend the open block, but
+/// a statement with no block open becomes an error, a comment does not), or a
+/// line that it skips.
 fn grouping(line: &Line) -> Option<(u8, Option<BlockKind>)> {
     let top = line.indent == 0;
     match &line.kind {
         LineKind::Header { block, .. } => Some((0, Some(*block))),
         LineKind::Statement { .. } => Some((1, None)),
         LineKind::Trivia if top || line.comment.is_none() => Some((2, None)),
-        LineKind::Trivia => Some((1, None)),
+        LineKind::Trivia => Some((3, None)),
         LineKind::Error { .. } => None,
     }
 }

@@ -15,6 +15,9 @@ const PIECES: &[&str] = &[
     "",
     "\n",
     "\r\n",
+    // A lone CR is a line break too; it can join a `\n` after it into one.
+    "\r",
+    "\u{2029}",
     "  ",
     "\t",
     "eye right\n",
@@ -86,6 +89,18 @@ fn an_edit_that_moves_a_header_regroups_blocks() {
     let r = reparse(&p, 0..0, "eye right\n");
     assert!(r.errors.is_empty(), "{:?}", r.errors);
     assert_same(&r, &parse("eye right\n  add +1.00\n"));
+}
+
+/// Found by the `lsp_edits` fuzz target: an indented comment before any block
+/// edited into a statement kept the fast path (same line count, no errors
+/// before), so the statement outside every block got no P0003 error.
+#[test]
+fn a_comment_before_any_block_edited_into_a_statement_is_an_error() {
+    let p = parse("  # expect-code: P0°");
+    assert!(p.errors.is_empty());
+    let r = reparse(&p, 2..2, "add +2.00");
+    assert_same(&r, &parse("  add +2.00# expect-code: P0°"));
+    assert_eq!(r.errors.len(), 1);
 }
 
 #[test]

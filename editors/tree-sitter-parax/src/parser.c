@@ -629,189 +629,179 @@ static bool ts_lex(TSLexer *lexer, TSStateId state) {
   eof = lexer->eof(lexer);
   switch (state) {
     case 0:
-      if (eof) ADVANCE(15);
+      if (eof) ADVANCE(13);
       ADVANCE_MAP(
-        '\n', 16,
-        '\r', 17,
-        '"', 3,
-        '#', 19,
-        '%', 29,
-        '+', 6,
-        ',', 34,
-        '.', 8,
-        '/', 33,
-        '@', 35,
-        'x', 31,
-        0xb0, 28,
-        0xb1, 36,
-        0xd7, 32,
-        '\t', 18,
-        ' ', 18,
-        '-', 7,
-        0x2212, 7,
+        '\n', 14,
+        '\r', 15,
+        '"', 1,
+        '#', 17,
+        '%', 27,
+        '+', 4,
+        ',', 32,
+        '.', 6,
+        '/', 31,
+        '@', 33,
+        'x', 29,
+        0xb0, 26,
+        0xb1, 34,
+        0xd7, 30,
+        '\t', 16,
+        ' ', 16,
+        '-', 5,
+        0x2212, 5,
       );
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(25);
-      if (set_contains(sym_word_character_set_1, 678, lookahead)) ADVANCE(38);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(23);
+      if (set_contains(sym_word_character_set_1, 678, lookahead)) ADVANCE(36);
       END_STATE();
     case 1:
-      if (lookahead == '\n') ADVANCE(16);
+      if (lookahead == '"') ADVANCE(28);
+      if (lookahead == '\\') ADVANCE(11);
+      if (lookahead != 0 &&
+          lookahead != '\n' &&
+          lookahead != '\r') ADVANCE(1);
       END_STATE();
     case 2:
-      if (lookahead == '\r') ADVANCE(2);
-      if (lookahead != 0 &&
-          lookahead != '\n') ADVANCE(19);
+      if (lookahead == '-') ADVANCE(35);
       END_STATE();
     case 3:
-      if (lookahead == '"') ADVANCE(30);
-      if (lookahead == '\\') ADVANCE(13);
-      if (lookahead != 0 &&
-          lookahead != '\n') ADVANCE(3);
+      if (lookahead == '-') ADVANCE(10);
       END_STATE();
     case 4:
-      if (lookahead == '-') ADVANCE(37);
+      if (lookahead == '.') ADVANCE(6);
+      if (lookahead == '/') ADVANCE(2);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(24);
       END_STATE();
     case 5:
-      if (lookahead == '-') ADVANCE(12);
+      if (lookahead == '.') ADVANCE(6);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(24);
       END_STATE();
     case 6:
-      if (lookahead == '.') ADVANCE(8);
-      if (lookahead == '/') ADVANCE(4);
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(26);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(25);
       END_STATE();
     case 7:
-      if (lookahead == '.') ADVANCE(8);
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(26);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(19);
       END_STATE();
     case 8:
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(27);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(3);
       END_STATE();
     case 9:
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(21);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(8);
       END_STATE();
     case 10:
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(5);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(7);
       END_STATE();
     case 11:
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(10);
+      if (lookahead != 0 &&
+          lookahead != '\n' &&
+          lookahead != '\r') ADVANCE(1);
       END_STATE();
     case 12:
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(9);
+      if (eof) ADVANCE(13);
+      if (lookahead == '\n') ADVANCE(14);
+      if (lookahead == '\r') ADVANCE(15);
+      if (lookahead == '#') ADVANCE(17);
+      if (('A' <= lookahead && lookahead <= 'Z') ||
+          ('a' <= lookahead && lookahead <= 'z')) ADVANCE(18);
       END_STATE();
     case 13:
-      if (lookahead != 0 &&
-          lookahead != '\n') ADVANCE(3);
-      END_STATE();
-    case 14:
-      if (eof) ADVANCE(15);
-      if (lookahead == '\n') ADVANCE(16);
-      if (lookahead == '\r') ADVANCE(1);
-      if (lookahead == '#') ADVANCE(19);
-      if (('A' <= lookahead && lookahead <= 'Z') ||
-          ('a' <= lookahead && lookahead <= 'z')) ADVANCE(20);
-      END_STATE();
-    case 15:
       ACCEPT_TOKEN(ts_builtin_sym_end);
       END_STATE();
-    case 16:
+    case 14:
       ACCEPT_TOKEN(sym__newline);
       END_STATE();
-    case 17:
+    case 15:
+      ACCEPT_TOKEN(sym__newline);
+      if (lookahead == '\n') ADVANCE(14);
+      END_STATE();
+    case 16:
       ACCEPT_TOKEN(sym__ws);
-      if (lookahead == '\n') ADVANCE(16);
       if (lookahead == '\t' ||
-          lookahead == '\r' ||
-          lookahead == ' ') ADVANCE(18);
+          lookahead == ' ') ADVANCE(16);
+      END_STATE();
+    case 17:
+      ACCEPT_TOKEN(sym_comment);
+      if (lookahead != 0 &&
+          lookahead != '\n' &&
+          lookahead != '\r') ADVANCE(17);
       END_STATE();
     case 18:
-      ACCEPT_TOKEN(sym__ws);
-      if (lookahead == '\t' ||
-          lookahead == '\r' ||
-          lookahead == ' ') ADVANCE(18);
-      END_STATE();
-    case 19:
-      ACCEPT_TOKEN(sym_comment);
-      if (lookahead == '\r') ADVANCE(2);
-      if (lookahead != 0 &&
-          lookahead != '\n') ADVANCE(19);
-      END_STATE();
-    case 20:
       ACCEPT_TOKEN(sym_keyword);
       if (lookahead == '-' ||
           ('0' <= lookahead && lookahead <= '9') ||
           ('A' <= lookahead && lookahead <= 'Z') ||
           lookahead == '_' ||
-          ('a' <= lookahead && lookahead <= 'z')) ADVANCE(20);
+          ('a' <= lookahead && lookahead <= 'z')) ADVANCE(18);
+      END_STATE();
+    case 19:
+      ACCEPT_TOKEN(sym_date);
+      END_STATE();
+    case 20:
+      ACCEPT_TOKEN(sym_number);
+      if (lookahead == '-') ADVANCE(9);
+      if (lookahead == '.') ADVANCE(25);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(24);
       END_STATE();
     case 21:
-      ACCEPT_TOKEN(sym_date);
+      ACCEPT_TOKEN(sym_number);
+      if (lookahead == '.') ADVANCE(25);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(20);
       END_STATE();
     case 22:
       ACCEPT_TOKEN(sym_number);
-      if (lookahead == '-') ADVANCE(11);
-      if (lookahead == '.') ADVANCE(27);
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(26);
+      if (lookahead == '.') ADVANCE(25);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(21);
       END_STATE();
     case 23:
       ACCEPT_TOKEN(sym_number);
-      if (lookahead == '.') ADVANCE(27);
+      if (lookahead == '.') ADVANCE(25);
       if (('0' <= lookahead && lookahead <= '9')) ADVANCE(22);
       END_STATE();
     case 24:
       ACCEPT_TOKEN(sym_number);
-      if (lookahead == '.') ADVANCE(27);
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(23);
+      if (lookahead == '.') ADVANCE(25);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(24);
       END_STATE();
     case 25:
       ACCEPT_TOKEN(sym_number);
-      if (lookahead == '.') ADVANCE(27);
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(24);
+      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(25);
       END_STATE();
     case 26:
-      ACCEPT_TOKEN(sym_number);
-      if (lookahead == '.') ADVANCE(27);
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(26);
-      END_STATE();
-    case 27:
-      ACCEPT_TOKEN(sym_number);
-      if (('0' <= lookahead && lookahead <= '9')) ADVANCE(27);
-      END_STATE();
-    case 28:
       ACCEPT_TOKEN(anon_sym_u00b0);
       END_STATE();
-    case 29:
+    case 27:
       ACCEPT_TOKEN(anon_sym_PERCENT);
       END_STATE();
-    case 30:
+    case 28:
       ACCEPT_TOKEN(sym_string);
       END_STATE();
-    case 31:
+    case 29:
       ACCEPT_TOKEN(anon_sym_x);
       if (lookahead == '-' ||
           ('A' <= lookahead && lookahead <= 'Z') ||
           lookahead == '_' ||
-          ('a' <= lookahead && lookahead <= 'z')) ADVANCE(38);
+          ('a' <= lookahead && lookahead <= 'z')) ADVANCE(36);
       END_STATE();
-    case 32:
+    case 30:
       ACCEPT_TOKEN(anon_sym_u00d7);
       END_STATE();
-    case 33:
+    case 31:
       ACCEPT_TOKEN(anon_sym_SLASH);
       END_STATE();
-    case 34:
+    case 32:
       ACCEPT_TOKEN(anon_sym_COMMA);
       END_STATE();
-    case 35:
+    case 33:
       ACCEPT_TOKEN(anon_sym_AT);
       END_STATE();
-    case 36:
+    case 34:
       ACCEPT_TOKEN(anon_sym_u00b1);
       END_STATE();
-    case 37:
+    case 35:
       ACCEPT_TOKEN(anon_sym_PLUS_SLASH_DASH);
       END_STATE();
-    case 38:
+    case 36:
       ACCEPT_TOKEN(sym_word);
-      if (set_contains(sym_word_character_set_2, 681, lookahead)) ADVANCE(38);
+      if (set_contains(sym_word_character_set_2, 681, lookahead)) ADVANCE(36);
       END_STATE();
     default:
       return false;
@@ -1071,7 +1061,7 @@ static const TSLexerMode ts_lex_modes[STATE_COUNT] = {
   [21] = {.lex_state = 0},
   [22] = {.lex_state = 0},
   [23] = {.lex_state = 0},
-  [24] = {.lex_state = 14},
+  [24] = {.lex_state = 12},
   [25] = {.lex_state = 0},
   [26] = {.lex_state = 0},
   [27] = {.lex_state = 0},
@@ -1348,13 +1338,13 @@ static const uint16_t ts_small_parse_table[] = {
       anon_sym_system,
       anon_sym_model_DASHeye,
   [210] = 2,
-    ACTIONS(84), 3,
-      sym__ws,
+    ACTIONS(84), 2,
       sym_number,
       anon_sym_x,
-    ACTIONS(82), 12,
+    ACTIONS(82), 13,
       ts_builtin_sym_end,
       sym__newline,
+      sym__ws,
       sym_comment,
       sym_date,
       sym_string,
@@ -1366,13 +1356,13 @@ static const uint16_t ts_small_parse_table[] = {
       anon_sym_PLUS_SLASH_DASH,
       sym_word,
   [230] = 2,
-    ACTIONS(88), 3,
-      sym__ws,
+    ACTIONS(88), 2,
       sym_number,
       anon_sym_x,
-    ACTIONS(86), 12,
+    ACTIONS(86), 13,
       ts_builtin_sym_end,
       sym__newline,
+      sym__ws,
       sym_comment,
       sym_date,
       sym_string,
@@ -1431,13 +1421,13 @@ static const uint16_t ts_small_parse_table[] = {
       anon_sym_u00b1,
       anon_sym_PLUS_SLASH_DASH,
   [312] = 2,
-    ACTIONS(100), 3,
-      sym__ws,
+    ACTIONS(100), 2,
       sym_number,
       anon_sym_x,
-    ACTIONS(98), 12,
+    ACTIONS(98), 13,
       ts_builtin_sym_end,
       sym__newline,
+      sym__ws,
       sym_comment,
       sym_date,
       sym_string,
@@ -1449,13 +1439,13 @@ static const uint16_t ts_small_parse_table[] = {
       anon_sym_PLUS_SLASH_DASH,
       sym_word,
   [332] = 2,
-    ACTIONS(104), 3,
-      sym__ws,
+    ACTIONS(104), 2,
       sym_number,
       anon_sym_x,
-    ACTIONS(102), 12,
+    ACTIONS(102), 13,
       ts_builtin_sym_end,
       sym__newline,
+      sym__ws,
       sym_comment,
       sym_date,
       sym_string,
@@ -1467,13 +1457,13 @@ static const uint16_t ts_small_parse_table[] = {
       anon_sym_PLUS_SLASH_DASH,
       sym_word,
   [352] = 2,
-    ACTIONS(108), 3,
-      sym__ws,
+    ACTIONS(108), 2,
       sym_number,
       anon_sym_x,
-    ACTIONS(106), 12,
+    ACTIONS(106), 13,
       ts_builtin_sym_end,
       sym__newline,
+      sym__ws,
       sym_comment,
       sym_date,
       sym_string,
@@ -1485,13 +1475,13 @@ static const uint16_t ts_small_parse_table[] = {
       anon_sym_PLUS_SLASH_DASH,
       sym_word,
   [372] = 2,
-    ACTIONS(110), 3,
-      sym__ws,
+    ACTIONS(110), 2,
       sym_number,
       anon_sym_x,
-    ACTIONS(39), 12,
+    ACTIONS(39), 13,
       ts_builtin_sym_end,
       sym__newline,
+      sym__ws,
       sym_comment,
       sym_date,
       sym_string,
@@ -1539,12 +1529,11 @@ static const uint16_t ts_small_parse_table[] = {
       anon_sym_u00b0,
       anon_sym_u0394,
       anon_sym_PERCENT,
-  [438] = 2,
-    ACTIONS(123), 1,
-      sym__ws,
-    ACTIONS(112), 10,
+  [438] = 1,
+    ACTIONS(112), 11,
       ts_builtin_sym_end,
       sym__newline,
+      sym__ws,
       sym_comment,
       anon_sym_case,
       anon_sym_eye,
@@ -1553,157 +1542,156 @@ static const uint16_t ts_small_parse_table[] = {
       anon_sym_contact_DASHlens,
       anon_sym_system,
       anon_sym_model_DASHeye,
-  [454] = 4,
-    ACTIONS(127), 1,
+  [452] = 4,
+    ACTIONS(125), 1,
       sym__ws,
-    ACTIONS(129), 1,
+    ACTIONS(127), 1,
       sym_comment,
     STATE(23), 1,
       sym__values,
-    ACTIONS(125), 2,
+    ACTIONS(123), 2,
       ts_builtin_sym_end,
       sym__newline,
-  [468] = 4,
-    ACTIONS(133), 1,
+  [466] = 4,
+    ACTIONS(131), 1,
       sym__ws,
-    ACTIONS(135), 1,
+    ACTIONS(133), 1,
       sym_comment,
     STATE(22), 1,
       sym__values,
-    ACTIONS(131), 2,
+    ACTIONS(129), 2,
       ts_builtin_sym_end,
       sym__newline,
-  [482] = 3,
+  [480] = 3,
     ACTIONS(74), 1,
+      sym_comment,
+    ACTIONS(135), 1,
+      sym__ws,
+    ACTIONS(72), 2,
+      ts_builtin_sym_end,
+      sym__newline,
+  [491] = 3,
+    ACTIONS(70), 1,
       sym_comment,
     ACTIONS(137), 1,
       sym__ws,
-    ACTIONS(72), 2,
-      ts_builtin_sym_end,
-      sym__newline,
-  [493] = 3,
-    ACTIONS(70), 1,
-      sym_comment,
-    ACTIONS(139), 1,
-      sym__ws,
     ACTIONS(66), 2,
       ts_builtin_sym_end,
       sym__newline,
-  [504] = 3,
+  [502] = 3,
+    ACTIONS(141), 1,
+      sym_comment,
     ACTIONS(143), 1,
-      sym_comment,
-    ACTIONS(145), 1,
       sym_keyword,
-    ACTIONS(141), 2,
+    ACTIONS(139), 2,
       ts_builtin_sym_end,
       sym__newline,
-  [515] = 2,
-    ACTIONS(149), 1,
+  [513] = 1,
+    ACTIONS(145), 4,
+      ts_builtin_sym_end,
+      sym__newline,
       sym__ws,
-    ACTIONS(147), 3,
-      ts_builtin_sym_end,
-      sym__newline,
       sym_comment,
-  [524] = 3,
-    ACTIONS(151), 1,
+  [520] = 3,
+    ACTIONS(147), 1,
       ts_builtin_sym_end,
-    ACTIONS(153), 1,
+    ACTIONS(149), 1,
       sym__newline,
     STATE(32), 1,
       aux_sym_source_file_repeat2,
-  [534] = 3,
+  [530] = 3,
     ACTIONS(90), 1,
       ts_builtin_sym_end,
-    ACTIONS(153), 1,
+    ACTIONS(149), 1,
       sym__newline,
     STATE(26), 1,
       aux_sym_source_file_repeat2,
-  [544] = 3,
-    ACTIONS(153), 1,
+  [540] = 3,
+    ACTIONS(149), 1,
       sym__newline,
-    ACTIONS(155), 1,
+    ACTIONS(151), 1,
       ts_builtin_sym_end,
     STATE(32), 1,
       aux_sym_source_file_repeat2,
-  [554] = 2,
-    ACTIONS(159), 1,
+  [550] = 2,
+    ACTIONS(155), 1,
       sym_comment,
-    ACTIONS(157), 2,
+    ACTIONS(153), 2,
       ts_builtin_sym_end,
       sym__newline,
-  [562] = 3,
-    ACTIONS(151), 1,
+  [558] = 3,
+    ACTIONS(147), 1,
       ts_builtin_sym_end,
-    ACTIONS(153), 1,
+    ACTIONS(149), 1,
       sym__newline,
     STATE(28), 1,
       aux_sym_source_file_repeat2,
-  [572] = 2,
-    ACTIONS(143), 1,
+  [568] = 2,
+    ACTIONS(141), 1,
       sym_comment,
-    ACTIONS(141), 2,
+    ACTIONS(139), 2,
       ts_builtin_sym_end,
       sym__newline,
-  [580] = 3,
-    ACTIONS(161), 1,
+  [576] = 3,
+    ACTIONS(157), 1,
       ts_builtin_sym_end,
-    ACTIONS(163), 1,
+    ACTIONS(159), 1,
       sym__newline,
     STATE(32), 1,
       aux_sym_source_file_repeat2,
-  [590] = 2,
-    ACTIONS(168), 1,
+  [586] = 2,
+    ACTIONS(164), 1,
       sym_comment,
-    ACTIONS(166), 2,
+    ACTIONS(162), 2,
       ts_builtin_sym_end,
       sym__newline,
-  [598] = 1,
+  [594] = 1,
     ACTIONS(66), 2,
       ts_builtin_sym_end,
       sym__newline,
-  [603] = 2,
-    ACTIONS(151), 1,
+  [599] = 2,
+    ACTIONS(147), 1,
       ts_builtin_sym_end,
-    ACTIONS(170), 1,
+    ACTIONS(166), 1,
       sym__newline,
-  [610] = 2,
+  [606] = 2,
     ACTIONS(90), 1,
       ts_builtin_sym_end,
-    ACTIONS(170), 1,
+    ACTIONS(166), 1,
       sym__newline,
-  [617] = 1,
-    ACTIONS(172), 2,
+  [613] = 1,
+    ACTIONS(168), 2,
       ts_builtin_sym_end,
       sym__newline,
-  [622] = 1,
-    ACTIONS(161), 2,
-      ts_builtin_sym_end,
-      sym__newline,
-  [627] = 1,
-    ACTIONS(174), 2,
-      ts_builtin_sym_end,
-      sym__newline,
-  [632] = 1,
-    ACTIONS(72), 2,
-      ts_builtin_sym_end,
-      sym__newline,
-  [637] = 1,
+  [618] = 1,
     ACTIONS(157), 2,
       ts_builtin_sym_end,
       sym__newline,
-  [642] = 1,
-    ACTIONS(166), 2,
+  [623] = 1,
+    ACTIONS(170), 2,
       ts_builtin_sym_end,
       sym__newline,
-  [647] = 1,
-    ACTIONS(176), 2,
+  [628] = 1,
+    ACTIONS(72), 2,
       ts_builtin_sym_end,
+      sym__newline,
+  [633] = 1,
+    ACTIONS(153), 2,
+      ts_builtin_sym_end,
+      sym__newline,
+  [638] = 1,
+    ACTIONS(162), 2,
+      ts_builtin_sym_end,
+      sym__newline,
+  [643] = 1,
+    ACTIONS(172), 2,
+      ts_builtin_sym_end,
+      sym__newline,
+  [648] = 1,
+    ACTIONS(166), 1,
       sym__newline,
   [652] = 1,
-    ACTIONS(170), 1,
-      sym__newline,
-  [656] = 1,
-    ACTIONS(178), 1,
+    ACTIONS(174), 1,
       ts_builtin_sym_end,
 };
 
@@ -1725,32 +1713,32 @@ static const uint32_t ts_small_parse_table_map[] = {
   [SMALL_STATE(17)] = 392,
   [SMALL_STATE(18)] = 418,
   [SMALL_STATE(19)] = 438,
-  [SMALL_STATE(20)] = 454,
-  [SMALL_STATE(21)] = 468,
-  [SMALL_STATE(22)] = 482,
-  [SMALL_STATE(23)] = 493,
-  [SMALL_STATE(24)] = 504,
-  [SMALL_STATE(25)] = 515,
-  [SMALL_STATE(26)] = 524,
-  [SMALL_STATE(27)] = 534,
-  [SMALL_STATE(28)] = 544,
-  [SMALL_STATE(29)] = 554,
-  [SMALL_STATE(30)] = 562,
-  [SMALL_STATE(31)] = 572,
-  [SMALL_STATE(32)] = 580,
-  [SMALL_STATE(33)] = 590,
-  [SMALL_STATE(34)] = 598,
-  [SMALL_STATE(35)] = 603,
-  [SMALL_STATE(36)] = 610,
-  [SMALL_STATE(37)] = 617,
-  [SMALL_STATE(38)] = 622,
-  [SMALL_STATE(39)] = 627,
-  [SMALL_STATE(40)] = 632,
-  [SMALL_STATE(41)] = 637,
-  [SMALL_STATE(42)] = 642,
-  [SMALL_STATE(43)] = 647,
-  [SMALL_STATE(44)] = 652,
-  [SMALL_STATE(45)] = 656,
+  [SMALL_STATE(20)] = 452,
+  [SMALL_STATE(21)] = 466,
+  [SMALL_STATE(22)] = 480,
+  [SMALL_STATE(23)] = 491,
+  [SMALL_STATE(24)] = 502,
+  [SMALL_STATE(25)] = 513,
+  [SMALL_STATE(26)] = 520,
+  [SMALL_STATE(27)] = 530,
+  [SMALL_STATE(28)] = 540,
+  [SMALL_STATE(29)] = 550,
+  [SMALL_STATE(30)] = 558,
+  [SMALL_STATE(31)] = 568,
+  [SMALL_STATE(32)] = 576,
+  [SMALL_STATE(33)] = 586,
+  [SMALL_STATE(34)] = 594,
+  [SMALL_STATE(35)] = 599,
+  [SMALL_STATE(36)] = 606,
+  [SMALL_STATE(37)] = 613,
+  [SMALL_STATE(38)] = 618,
+  [SMALL_STATE(39)] = 623,
+  [SMALL_STATE(40)] = 628,
+  [SMALL_STATE(41)] = 633,
+  [SMALL_STATE(42)] = 638,
+  [SMALL_STATE(43)] = 643,
+  [SMALL_STATE(44)] = 648,
+  [SMALL_STATE(45)] = 652,
 };
 
 static const TSParseActionEntry ts_parse_actions[] = {
@@ -1758,38 +1746,38 @@ static const TSParseActionEntry ts_parse_actions[] = {
   [1] = {.entry = {.count = 1, .reusable = false}}, RECOVER(),
   [3] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_source_file, 0, 0, 0),
   [5] = {.entry = {.count = 1, .reusable = true}}, SHIFT(11),
-  [7] = {.entry = {.count = 1, .reusable = false}}, SHIFT(31),
+  [7] = {.entry = {.count = 1, .reusable = true}}, SHIFT(31),
   [9] = {.entry = {.count = 1, .reusable = true}}, SHIFT(36),
   [11] = {.entry = {.count = 1, .reusable = true}}, SHIFT(25),
   [13] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_quantity, 1, 0, 0),
   [15] = {.entry = {.count = 1, .reusable = false}}, REDUCE(sym_quantity, 1, 0, 0),
-  [17] = {.entry = {.count = 2, .reusable = false}}, REDUCE(sym_quantity, 1, 0, 0), SHIFT(18),
+  [17] = {.entry = {.count = 2, .reusable = true}}, REDUCE(sym_quantity, 1, 0, 0), SHIFT(18),
   [20] = {.entry = {.count = 1, .reusable = false}}, SHIFT(13),
   [22] = {.entry = {.count = 1, .reusable = true}}, SHIFT(13),
   [24] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym__values, 3, 0, 0),
   [26] = {.entry = {.count = 1, .reusable = true}}, SHIFT(4),
-  [28] = {.entry = {.count = 2, .reusable = false}}, REDUCE(sym__values, 3, 0, 0), SHIFT(12),
+  [28] = {.entry = {.count = 2, .reusable = true}}, REDUCE(sym__values, 3, 0, 0), SHIFT(12),
   [31] = {.entry = {.count = 1, .reusable = false}}, SHIFT(2),
   [33] = {.entry = {.count = 1, .reusable = false}}, SHIFT(10),
   [35] = {.entry = {.count = 1, .reusable = true}}, SHIFT(10),
   [37] = {.entry = {.count = 1, .reusable = true}}, SHIFT(9),
   [39] = {.entry = {.count = 1, .reusable = true}}, REDUCE(aux_sym__values_repeat1, 2, 0, 0),
   [41] = {.entry = {.count = 2, .reusable = true}}, REDUCE(aux_sym__values_repeat1, 2, 0, 0), SHIFT_REPEAT(4),
-  [44] = {.entry = {.count = 2, .reusable = false}}, REDUCE(aux_sym__values_repeat1, 2, 0, 0), SHIFT_REPEAT(12),
+  [44] = {.entry = {.count = 2, .reusable = true}}, REDUCE(aux_sym__values_repeat1, 2, 0, 0), SHIFT_REPEAT(12),
   [47] = {.entry = {.count = 2, .reusable = false}}, REDUCE(aux_sym__values_repeat1, 2, 0, 0), SHIFT_REPEAT(2),
   [50] = {.entry = {.count = 2, .reusable = false}}, REDUCE(aux_sym__values_repeat1, 2, 0, 0), SHIFT_REPEAT(10),
   [53] = {.entry = {.count = 2, .reusable = true}}, REDUCE(aux_sym__values_repeat1, 2, 0, 0), SHIFT_REPEAT(10),
   [56] = {.entry = {.count = 2, .reusable = true}}, REDUCE(aux_sym__values_repeat1, 2, 0, 0), SHIFT_REPEAT(9),
   [59] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym__values, 2, 0, 0),
   [61] = {.entry = {.count = 1, .reusable = true}}, SHIFT(3),
-  [63] = {.entry = {.count = 2, .reusable = false}}, REDUCE(sym__values, 2, 0, 0), SHIFT(12),
+  [63] = {.entry = {.count = 2, .reusable = true}}, REDUCE(sym__values, 2, 0, 0), SHIFT(12),
   [66] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_header, 2, 0, 0),
   [68] = {.entry = {.count = 1, .reusable = true}}, SHIFT(5),
   [70] = {.entry = {.count = 1, .reusable = true}}, SHIFT(41),
   [72] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_statement, 3, 0, 1),
   [74] = {.entry = {.count = 1, .reusable = true}}, SHIFT(42),
   [76] = {.entry = {.count = 1, .reusable = true}}, REDUCE(aux_sym_source_file_repeat2, 1, 0, 0),
-  [78] = {.entry = {.count = 1, .reusable = false}}, SHIFT(24),
+  [78] = {.entry = {.count = 1, .reusable = true}}, SHIFT(24),
   [80] = {.entry = {.count = 1, .reusable = true}}, SHIFT(38),
   [82] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_symbol, 1, 0, 0),
   [84] = {.entry = {.count = 1, .reusable = false}}, REDUCE(sym_symbol, 1, 0, 0),
@@ -1808,36 +1796,34 @@ static const TSParseActionEntry ts_parse_actions[] = {
   [110] = {.entry = {.count = 1, .reusable = false}}, REDUCE(aux_sym__values_repeat1, 2, 0, 0),
   [112] = {.entry = {.count = 1, .reusable = true}}, REDUCE(aux_sym_source_file_repeat1, 2, 0, 0),
   [114] = {.entry = {.count = 2, .reusable = true}}, REDUCE(aux_sym_source_file_repeat1, 2, 0, 0), SHIFT_REPEAT(17),
-  [117] = {.entry = {.count = 2, .reusable = false}}, REDUCE(aux_sym_source_file_repeat1, 2, 0, 0), SHIFT_REPEAT(31),
+  [117] = {.entry = {.count = 2, .reusable = true}}, REDUCE(aux_sym_source_file_repeat1, 2, 0, 0), SHIFT_REPEAT(31),
   [120] = {.entry = {.count = 2, .reusable = true}}, REDUCE(aux_sym_source_file_repeat1, 2, 0, 0), SHIFT_REPEAT(44),
-  [123] = {.entry = {.count = 1, .reusable = false}}, REDUCE(aux_sym_source_file_repeat1, 2, 0, 0),
-  [125] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_header, 1, 0, 0),
-  [127] = {.entry = {.count = 1, .reusable = false}}, SHIFT(6),
-  [129] = {.entry = {.count = 1, .reusable = true}}, SHIFT(34),
-  [131] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_statement, 2, 0, 1),
-  [133] = {.entry = {.count = 1, .reusable = false}}, SHIFT(7),
-  [135] = {.entry = {.count = 1, .reusable = true}}, SHIFT(40),
-  [137] = {.entry = {.count = 1, .reusable = false}}, SHIFT(33),
-  [139] = {.entry = {.count = 1, .reusable = false}}, SHIFT(29),
-  [141] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym__trivia, 1, 0, 0),
-  [143] = {.entry = {.count = 1, .reusable = true}}, SHIFT(37),
-  [145] = {.entry = {.count = 1, .reusable = true}}, SHIFT(21),
-  [147] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_block_kind, 1, 0, 0),
-  [149] = {.entry = {.count = 1, .reusable = false}}, REDUCE(sym_block_kind, 1, 0, 0),
-  [151] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_source_file, 2, 0, 0),
-  [153] = {.entry = {.count = 1, .reusable = true}}, SHIFT(8),
-  [155] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_source_file, 3, 0, 0),
-  [157] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_header, 3, 0, 0),
-  [159] = {.entry = {.count = 1, .reusable = true}}, SHIFT(39),
-  [161] = {.entry = {.count = 1, .reusable = true}}, REDUCE(aux_sym_source_file_repeat2, 2, 0, 0),
-  [163] = {.entry = {.count = 2, .reusable = true}}, REDUCE(aux_sym_source_file_repeat2, 2, 0, 0), SHIFT_REPEAT(8),
-  [166] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_statement, 4, 0, 1),
-  [168] = {.entry = {.count = 1, .reusable = true}}, SHIFT(43),
-  [170] = {.entry = {.count = 1, .reusable = true}}, SHIFT(19),
-  [172] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym__trivia, 2, 0, 0),
-  [174] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_header, 4, 0, 0),
-  [176] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_statement, 5, 0, 1),
-  [178] = {.entry = {.count = 1, .reusable = true}},  ACCEPT_INPUT(),
+  [123] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_header, 1, 0, 0),
+  [125] = {.entry = {.count = 1, .reusable = true}}, SHIFT(6),
+  [127] = {.entry = {.count = 1, .reusable = true}}, SHIFT(34),
+  [129] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_statement, 2, 0, 1),
+  [131] = {.entry = {.count = 1, .reusable = true}}, SHIFT(7),
+  [133] = {.entry = {.count = 1, .reusable = true}}, SHIFT(40),
+  [135] = {.entry = {.count = 1, .reusable = true}}, SHIFT(33),
+  [137] = {.entry = {.count = 1, .reusable = true}}, SHIFT(29),
+  [139] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym__trivia, 1, 0, 0),
+  [141] = {.entry = {.count = 1, .reusable = true}}, SHIFT(37),
+  [143] = {.entry = {.count = 1, .reusable = true}}, SHIFT(21),
+  [145] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_block_kind, 1, 0, 0),
+  [147] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_source_file, 2, 0, 0),
+  [149] = {.entry = {.count = 1, .reusable = true}}, SHIFT(8),
+  [151] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_source_file, 3, 0, 0),
+  [153] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_header, 3, 0, 0),
+  [155] = {.entry = {.count = 1, .reusable = true}}, SHIFT(39),
+  [157] = {.entry = {.count = 1, .reusable = true}}, REDUCE(aux_sym_source_file_repeat2, 2, 0, 0),
+  [159] = {.entry = {.count = 2, .reusable = true}}, REDUCE(aux_sym_source_file_repeat2, 2, 0, 0), SHIFT_REPEAT(8),
+  [162] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_statement, 4, 0, 1),
+  [164] = {.entry = {.count = 1, .reusable = true}}, SHIFT(43),
+  [166] = {.entry = {.count = 1, .reusable = true}}, SHIFT(19),
+  [168] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym__trivia, 2, 0, 0),
+  [170] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_header, 4, 0, 0),
+  [172] = {.entry = {.count = 1, .reusable = true}}, REDUCE(sym_statement, 5, 0, 1),
+  [174] = {.entry = {.count = 1, .reusable = true}},  ACCEPT_INPUT(),
 };
 
 #ifdef __cplusplus

@@ -108,7 +108,7 @@ fn line() -> impl Strategy<Value = String> {
 fn file() -> impl Strategy<Value = String> {
     (
         prop::collection::vec(line(), 1..12),
-        prop::sample::select(vec!["\n", "\r\n"]),
+        prop::sample::select(vec!["\n", "\r\n", "\r"]),
         any::<bool>(),
     )
         .prop_map(|(lines, nl, final_break)| {
@@ -129,8 +129,8 @@ proptest! {
     fn tree_sitter_reads_generated_files_as_pest_does(source in file()) {
         let pest = pest_lines(&source);
         let tree = parse(&source);
-        let ts = tree_lines(&tree, pest.len());
-        let errors = error_rows(&tree);
+        let ts = tree_lines(&tree, &source, pest.len());
+        let errors = error_rows(&tree, &source);
         if pest.iter().all(Option::is_some) {
             prop_assert!(!tree.root_node().has_error(),
                 "pest reads it, tree-sitter has errors:\n{source}\n{}", tree.root_node().to_sexp());

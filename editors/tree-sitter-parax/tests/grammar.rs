@@ -70,8 +70,8 @@ fn reads_every_example_and_fixture_as_the_pest_grammar_does() {
             .to_string();
         let pest = pest_lines(&source);
         let tree = parse(&source);
-        let ts = tree_lines(&tree, pest.len());
-        let errors = error_rows(&tree);
+        let ts = tree_lines(&tree, &source, pest.len());
+        let errors = error_rows(&tree, &source);
         if pest.iter().all(Option::is_some) {
             clean += 1;
             assert!(

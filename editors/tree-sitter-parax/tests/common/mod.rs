@@ -100,13 +100,17 @@ fn range(node: Node) -> (usize, usize) {
     (node.start_byte(), node.end_byte())
 }
 
-/// The tree-sitter view of each line; lines without a node are trivia.
-pub fn tree_lines(tree: &Tree, line_count: usize) -> Vec<LineView> {
+/// The tree-sitter view of each line of `source`; lines without a node are
+/// trivia. A node's line comes from its byte offset by the notation's line
+/// breaks (`parax_syntax::LineIndex`: `\n`, `\r\n`, lone `\r`), not from
+/// tree-sitter's row, which counts `\n` only.
+pub fn tree_lines(tree: &Tree, source: &str, line_count: usize) -> Vec<LineView> {
+    let index = parax_syntax::LineIndex::new(source);
     let mut lines = vec![LineView::Trivia { comment: None }; line_count];
     let root = tree.root_node();
     let mut cursor = root.walk();
     for node in root.named_children(&mut cursor) {
-        let row = node.start_position().row;
+        let row = index.line_of(node.start_byte());
         // ERROR nodes' rows are in `error_rows`, where the comparison stops.
         if row >= line_count || node.is_error() {
             continue;
@@ -171,13 +175,15 @@ pub fn tree_lines(tree: &Tree, line_count: usize) -> Vec<LineView> {
     lines
 }
 
-/// Rows covered by ERROR or MISSING nodes.
-pub fn error_rows(tree: &Tree) -> BTreeSet<usize> {
+/// Lines of `source` (counted as in [`tree_lines`]) covered by ERROR or
+/// MISSING nodes.
+pub fn error_rows(tree: &Tree, source: &str) -> BTreeSet<usize> {
+    let index = parax_syntax::LineIndex::new(source);
     let mut rows = BTreeSet::new();
     let mut stack = vec![tree.root_node()];
     while let Some(node) = stack.pop() {
         if node.is_error() || node.is_missing() {
-            rows.extend(node.start_position().row..=node.end_position().row);
+            rows.extend(index.line_of(node.start_byte())..=index.line_of(node.end_byte()));
             continue;
         }
         if node.has_error() {
