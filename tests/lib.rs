@@ -65,7 +65,7 @@ pub fn meaning(parsed: &Parsed) -> Meaning {
         .iter()
         // A message may quote the source, whose spaces the formatter changes
         // (`2m` is written `2 m`).
-        .map(|d| (d.code.to_owned(), without_blanks(&d.message)))
+        .map(|d| (d.code.to_string(), without_blanks(&d.message)))
         .collect();
     let derived = ev.derived.iter().map(|d| (d.key(), d.text())).collect();
     (diagnostics, derived)

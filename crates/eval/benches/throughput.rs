@@ -84,14 +84,17 @@ fn json_of_parts(parts: &[String]) -> serde_json::Value {
     for p in &parts[1..] {
         let mut v = serde_json::to_value(evaluate_source(p).1.case).expect("serializes");
         shift(&mut v, offset);
-        for k in ["eyes", "frames", "systems"] {
-            let items = v[k]
-                .as_array_mut()
-                .expect("a list")
-                .drain(..)
-                .collect::<Vec<_>>();
-            whole[k].as_array_mut().expect("a list").extend(items);
-        }
+        // The case model is the `case` block's facts and one file-ordered
+        // list of blocks: a later part's blocks follow the earlier ones.
+        let items = v["blocks"]
+            .as_array_mut()
+            .expect("a list")
+            .drain(..)
+            .collect::<Vec<_>>();
+        whole["blocks"]
+            .as_array_mut()
+            .expect("a list")
+            .extend(items);
         offset += p.len() as u64;
     }
     whole

@@ -9,7 +9,7 @@ use serde::{Deserialize, Serialize};
 
 pub use crate::blocks::case::CaseInfo;
 pub use crate::blocks::contact_lens::ContactLens;
-pub use crate::blocks::eye::{Eye, KMeridian, Refraction};
+pub use crate::blocks::eye::{Eye, IolFacts, KMeridian, Refraction};
 pub use crate::blocks::frame::Frame;
 pub use crate::blocks::model_eye::{ModelEye, SurfaceOverride};
 pub use crate::blocks::spectacle_lens::{PrismRx, SpectacleLens};

@@ -10,7 +10,7 @@ fuzz_target!(|data: &[u8]| {
     let parsed = parax_syntax::parse(&source);
     let ev = parax_eval::evaluate(&parsed);
     for d in &ev.diagnostics {
-        assert_slices(&source, d.span, d.code);
+        assert_slices(&source, d.span, d.code.as_str());
         let _ = parsed.index.line_col(&source, d.span.start());
         for e in d.fix.iter().flat_map(|f| &f.edits) {
             assert_slices(&source, e.span, "fix");

@@ -17,7 +17,10 @@ pub(crate) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
     let (Some(al), Some(k)) = (&e.axial_length, &e.keratometry) else {
         return;
     };
-    if e.iol_constant.is_none() && e.iol_elp.is_none() {
+    let Some(facts) = e.iol.as_deref() else {
+        return;
+    };
+    if facts.constant.is_none() && facts.elp.is_none() {
         return;
     }
     let index = e
@@ -31,10 +34,10 @@ pub(crate) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
         .sum::<f64>()
         / 2.0;
     let l = al.value * 1000.0;
-    let target = e.iol_target.as_ref().map_or(0.0, |t| t.value);
+    let target = facts.target.as_ref().map_or(0.0, |t| t.value);
     let mut any = false;
     let mut undefined_height = false;
-    if let Some(a) = &e.iol_constant {
+    if let Some(a) = &facts.constant {
         any = true;
         let g = iol::srkt_geometry(l, mean_k, a.value);
         undefined_height = !g.corneal_height_defined;
@@ -84,7 +87,7 @@ pub(crate) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
             },
         )
         .caution = Some(src::CAUTION_IOL);
-        if let Some(chosen) = &e.iol_power {
+        if let Some(chosen) = &facts.power {
             let r = iol::srkt_refraction(l, mean_k, a.value, chosen.value);
             out.push(
                 keys::IOL_PREDICTED_REFRACTION,
@@ -100,7 +103,7 @@ pub(crate) fn compute(e: &Eye, out: &mut Out<'_>, diags: &mut Vec<Diagnostic>) {
             .caution = Some(src::CAUTION_IOL);
         }
     }
-    if let Some(elp) = &e.iol_elp {
+    if let Some(elp) = &facts.elp {
         any = true;
         let p = iol::vergence_power(l, mean_k, elp.value * 1000.0, target, 12.0);
         out.push(
