@@ -133,7 +133,7 @@ fn no_value_name_is_written_outside_its_block_module() {
 /// history holds by the thousand: no other kind may grow past it unboxed.
 #[test]
 fn a_block_is_as_large_as_an_eye() {
-    use parax_eval::model::{Block, Eye};
+    use parax_eval::model::Block;
     assert_eq!(
         std::mem::size_of::<Block>(),
         std::mem::size_of::<parax_eval::model::Eye>()
