@@ -61,11 +61,13 @@ pub fn samples(case: &Case, values: &[Derived], group_by: GroupBy) -> Vec<Sample
     let info = &case.info;
     let mut out = Vec::new();
     for eye in case.eyes() {
-        let side = eye.side.name();
+        // The block id names the visit too (`eye.right.2026-01-02`), so a
+        // dated visit finds its own values, never another visit's.
+        let id = crate::blocks::eye::block_id(eye);
         let (Some(m), Some(j0), Some(j45)) = (
-            power(&format!("eye.{side}.{}", keys::SPHERICAL_EQUIVALENT)),
-            power(&format!("eye.{side}.{}", keys::VECTOR_J0)),
-            power(&format!("eye.{side}.{}", keys::VECTOR_J45)),
+            power(&format!("{id}.{}", keys::SPHERICAL_EQUIVALENT)),
+            power(&format!("{id}.{}", keys::VECTOR_J0)),
+            power(&format!("{id}.{}", keys::VECTOR_J45)),
         ) else {
             continue;
         };

@@ -93,3 +93,20 @@ fn a_length_written_in_another_unit_keeps_its_precision() {
         "100"
     );
 }
+
+#[test]
+fn every_dated_visit_counts_with_its_own_values_and_year() {
+    // Invented data: two dated visits of one right eye (a myopic shift).
+    let text = "case \"Invented\"\n\neye right 2024-05-06\n  refraction -1.00\n\neye right 2026-01-02\n  refraction -2.00 / -1.00 x 180\n";
+    let (ev, values) = kept(text);
+    let s = samples(&ev.case, &values, GroupBy::Year);
+    assert_eq!(s.len(), 2, "each dated visit is a sample");
+    assert_eq!(s[0].groups, ["2024"]);
+    assert_eq!(s[1].groups, ["2026"]);
+    // [S] Thibos, Wheeler & Horner 1997: M = S + C/2: -1.00 D for the first
+    // visit, -2.00 + (-1.00)/2 = -2.50 D for the second; J0 = -(C/2) cos 2α
+    // = 0.50 cos 360° = +0.50 D; tol 1e-9.
+    assert!((s[0].vector.m + 1.0).abs() < 1e-9, "{:?}", s[0].vector);
+    assert!((s[1].vector.m + 2.5).abs() < 1e-9, "{:?}", s[1].vector);
+    assert!((s[1].vector.j0 - 0.5).abs() < 1e-9, "{:?}", s[1].vector);
+}
