@@ -237,6 +237,17 @@ pub(crate) fn at<T>(value: Option<T>, span: Span) -> Option<At<T>> {
     value.map(|value| At { value, span })
 }
 
+/// Read one quantity with `spec` as the fact of the statement at `span` (the
+/// reader every single-number keyword uses).
+pub(crate) fn quantity(
+    r: &mut Reader<'_>,
+    spec: &u::QuantitySpec,
+    form: &str,
+    span: Span,
+) -> Option<At<f64>> {
+    at(r.quantity(spec, form), span)
+}
+
 pub(crate) fn read_prism(r: &mut Reader<'_>, form: &str) -> Option<PrismRx> {
     let amount = r.quantity(&u::PRISM, form);
     let base = r.word_of(&["BU", "BD", "BI", "BO"], "a base direction", form);

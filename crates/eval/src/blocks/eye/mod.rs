@@ -16,7 +16,7 @@ pub(crate) use visits::Visits;
 use super::{expect, one, Context, Keyword};
 use crate::compute::Out;
 use crate::diagnostic::Diagnostic;
-use crate::lower::{at, read_keratometry, side};
+use crate::lower::{at, quantity, read_keratometry, side};
 use crate::model::{At, Expect, ExpectToken, Rx, Side};
 use crate::read::Reader;
 use crate::units as u;
@@ -321,15 +321,6 @@ pub(crate) fn read_header(r: &mut Reader<'_>, form: &'static str, span: Span) ->
     let date = if r.at_end() { None } else { r.date(form) };
     r.finish(form);
     Some(Eye::new(side?, date, span))
-}
-
-fn quantity(
-    r: &mut Reader<'_>,
-    spec: &u::QuantitySpec,
-    form: &'static str,
-    span: Span,
-) -> Option<At<f64>> {
-    at(r.quantity(spec, form), span)
 }
 
 /// The keywords of an `eye` block and how each is read.

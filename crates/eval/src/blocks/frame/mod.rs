@@ -10,7 +10,7 @@ pub(crate) use compute::oc_height;
 use super::{expect, note, one, Context, Keyword};
 use crate::compute::Out;
 use crate::diagnostic::Diagnostic;
-use crate::lower::at;
+use crate::lower::quantity;
 use crate::model::{At, Expect};
 use crate::read::Reader;
 use crate::units as u;
@@ -98,58 +98,49 @@ pub(crate) fn read_header(r: &mut Reader<'_>, form: &'static str, span: Span) ->
     })
 }
 
-fn length(
-    r: &mut Reader<'_>,
-    spec: &u::QuantitySpec,
-    form: &'static str,
-    span: Span,
-) -> Option<At<f64>> {
-    at(r.quantity(spec, form), span)
-}
-
 /// The keywords of a `frame` block and how each is read.
 pub(crate) static KEYWORDS: &[Keyword<Frame>] = &[
     one(
         "vertex",
         "LENGTH mm",
         "vertex distance as fitted in this frame",
-        |r, f, span, form| f.vertex = length(r, &u::VERTEX, form, span),
+        |r, f, span, form| f.vertex = quantity(r, &u::VERTEX, form, span),
     ),
     one(
         "pantoscopic-tilt",
         "ANGLE deg",
         "pantoscopic tilt",
-        |r, f, span, form| f.pantoscopic_tilt = length(r, &u::TILT, form, span),
+        |r, f, span, form| f.pantoscopic_tilt = quantity(r, &u::TILT, form, span),
     ),
     one(
         "face-form",
         "ANGLE deg",
         "face form (wrap) angle",
-        |r, f, span, form| f.face_form = length(r, &u::FACE_FORM, form, span),
+        |r, f, span, form| f.face_form = quantity(r, &u::FACE_FORM, form, span),
     ),
     one(
         "fitting-height",
         "LENGTH mm",
         "height of the pupil centre above the lowest point of the rim",
-        |r, f, span, form| f.fitting_height = length(r, &u::FITTING_HEIGHT, form, span),
+        |r, f, span, form| f.fitting_height = quantity(r, &u::FITTING_HEIGHT, form, span),
     ),
     one(
         "reading-drop",
         "LENGTH mm",
         "how far below the distance centres the eyes read",
-        |r, f, span, form| f.reading_drop = length(r, &u::READING_DROP, form, span),
+        |r, f, span, form| f.reading_drop = quantity(r, &u::READING_DROP, form, span),
     ),
     one(
         "near-inset",
         "LENGTH mm",
         "inward shift of each reading point",
-        |r, f, span, form| f.near_inset = length(r, &u::NEAR_INSET, form, span),
+        |r, f, span, form| f.near_inset = quantity(r, &u::NEAR_INSET, form, span),
     ),
     one(
         "centre-distance",
         "LENGTH mm",
         "distance between the optical centres",
-        |r, f, span, form| f.centre_distance = length(r, &u::CENTRE_DISTANCE, form, span),
+        |r, f, span, form| f.centre_distance = quantity(r, &u::CENTRE_DISTANCE, form, span),
     ),
     one(
         "boxed-lens-size",
@@ -175,14 +166,14 @@ pub(crate) static KEYWORDS: &[Keyword<Frame>] = &[
         "LENGTH mm",
         "distance between the boxed lens shapes (bridge)",
         |r, f, span, form| {
-            f.distance_between_lenses = length(r, &u::DISTANCE_BETWEEN_LENSES, form, span)
+            f.distance_between_lenses = quantity(r, &u::DISTANCE_BETWEEN_LENSES, form, span)
         },
     ),
     one(
         "effective-diameter",
         "LENGTH mm",
         "twice the longest radius of the lens shape from its boxed centre",
-        |r, f, span, form| f.effective_diameter = length(r, &u::EFFECTIVE_DIAMETER, form, span),
+        |r, f, span, form| f.effective_diameter = quantity(r, &u::EFFECTIVE_DIAMETER, form, span),
     ),
     note(),
     expect(),

@@ -8,7 +8,7 @@ pub(crate) mod compute;
 pub(crate) use compute::compute;
 
 use super::{expect, note, one, Keyword};
-use crate::lower::{at, read_prism, side};
+use crate::lower::{at, quantity, read_prism, side};
 use crate::model::{At, Expect, Rx, Side};
 use crate::read::Reader;
 use crate::units as u;
@@ -143,15 +143,6 @@ pub(crate) fn read_header(
     let side = side(r, form);
     r.finish(form);
     Some(SpectacleLens::new(side?, span))
-}
-
-fn quantity(
-    r: &mut Reader<'_>,
-    spec: &u::QuantitySpec,
-    form: &'static str,
-    span: Span,
-) -> Option<At<f64>> {
-    at(r.quantity(spec, form), span)
 }
 
 /// The keywords of a `spectacle-lens` block and how each is read.
